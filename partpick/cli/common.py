@@ -1,0 +1,52 @@
+"""What every command shares: the error mapping, the ``--db`` option and the format choice."""
+
+from __future__ import annotations
+
+import functools
+import sys
+from collections.abc import Callable
+from typing import Annotated, Any, TypeVar
+
+import typer
+
+from partpick.errors import PartpickError
+
+F = TypeVar("F", bound=Callable[..., Any])
+
+EXIT_OK = 0
+EXIT_STRICT_REJECTS = 1
+EXIT_BAD_INPUT = 2
+EXIT_NO_PART = 3
+EXIT_INTERRUPTED = 130
+
+DbOption = Annotated[
+    str | None,
+    typer.Option(
+        "--db",
+        help="Catalog database: a path or an SQLAlchemy URL. "
+        "Default: $PARTPICK_DB, else ./partpick.db.",
+        show_default=False,
+    ),
+]
+
+
+def friendly_errors(command: F) -> F:
+    """Wrap a command so a PartpickError prints one line on stderr and exits with its code."""
+
+    @functools.wraps(command)
+    def wrapper(*args: Any, **kwargs: Any) -> Any:
+        try:
+            return command(*args, **kwargs)
+        except PartpickError as exc:
+            typer.echo(f"error: {exc}", err=True)
+            raise typer.Exit(exc.exit_code) from None
+        except KeyboardInterrupt:
+            typer.echo("interrupted; nothing was changed", err=True)
+            raise typer.Exit(EXIT_INTERRUPTED) from None
+
+    return wrapper  # type: ignore[return-value]
+
+
+def echo_warning(text: str) -> None:
+    """Print a warning line on stderr."""
+    print(f"warning: {text}", file=sys.stderr)

@@ -1,0 +1,144 @@
+"""Every error partpick raises on purpose.
+
+Each error keeps its facts as fields and builds its sentence in ``__str__``, so the CLI can
+print one clear line and pick an exit code without parsing text. Each also subclasses the
+built-in exception it is closest to, so library users can catch ``ValueError`` as usual.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+
+
+class PartpickError(Exception):
+    """Base class of every deliberate partpick error."""
+
+    exit_code: int = 2
+
+    def __str__(self) -> str:  # pragma: no cover - subclasses override
+        return self.__class__.__name__
+
+
+@dataclass(eq=False)
+class UnitError(PartpickError, ValueError):
+    """A piece of text is not a value of the expected unit."""
+
+    text: str
+    unit: str
+    reason: str
+
+    def __str__(self) -> str:
+        return f"{self.text!r} is not a value in {self.unit or 'plain numbers'}: {self.reason}"
+
+
+@dataclass(eq=False)
+class CatalogFormatError(PartpickError, ValueError):
+    """A catalog file cannot be imported at all (nothing from it was stored)."""
+
+    file: str
+    reason: str
+    line: int | None = None
+    column: str | None = None
+    value: str | None = None
+
+    def __str__(self) -> str:
+        where = self.file
+        if self.line is not None:
+            where += f", line {self.line}"
+        if self.column is not None:
+            where += f", column {self.column!r}"
+        if self.value is not None:
+            where += f", value {self.value!r}"
+        return f"{where}: {self.reason}"
+
+
+@dataclass(eq=False)
+class StrictImportError(PartpickError, ValueError):
+    """``--strict`` was given and at least one row was rejected, so nothing was imported."""
+
+    file: str
+    rejected: int
+    first: str
+    exit_code: int = field(default=1, init=False)
+
+    def __str__(self) -> str:
+        return (
+            f"{self.file}: {self.rejected} row(s) rejected, so nothing was imported "
+            f"(--strict). First: {self.first}"
+        )
+
+
+@dataclass(eq=False)
+class MapFileError(PartpickError, ValueError):
+    """A column map file is malformed."""
+
+    file: str
+    reason: str
+    key: str | None = None
+
+    def __str__(self) -> str:
+        key = f", key {self.key!r}" if self.key else ""
+        return f"{self.file}{key}: {self.reason}"
+
+
+@dataclass(eq=False)
+class SpecError(PartpickError, ValueError):
+    """A converter spec is missing a key or has an impossible value."""
+
+    key: str
+    reason: str
+    value: object = None
+    file: str | None = None
+
+    def __str__(self) -> str:
+        where = f"{self.file}: " if self.file else ""
+        value = f" (got {self.value!r})" if self.value is not None else ""
+        return f"{where}spec key {self.key!r}{value}: {self.reason}"
+
+
+@dataclass(eq=False)
+class ProfileError(PartpickError, ValueError):
+    """A derating profile cannot be found or is malformed."""
+
+    profile: str
+    reason: str
+    key: str | None = None
+
+    def __str__(self) -> str:
+        key = f", key {self.key!r}" if self.key else ""
+        return f"profile {self.profile}{key}: {self.reason}"
+
+
+@dataclass(eq=False)
+class QueryError(PartpickError, ValueError):
+    """A ``--where`` condition or other query cannot be understood."""
+
+    text: str
+    reason: str
+
+    def __str__(self) -> str:
+        return f"condition {self.text!r}: {self.reason}"
+
+
+@dataclass(eq=False)
+class NotFoundError(PartpickError, LookupError):
+    """A named thing (part, kind, role, file) does not exist."""
+
+    what: str
+    name: str
+    hint: str = ""
+
+    def __str__(self) -> str:
+        hint = f" {self.hint}" if self.hint else ""
+        return f"no {self.what} {self.name!r}.{hint}"
+
+
+@dataclass(eq=False)
+class DatabaseError(PartpickError, RuntimeError):
+    """The catalog database cannot be opened or read."""
+
+    url: str
+    reason: str
+
+    def __str__(self) -> str:
+        return f"catalog database {self.url}: {self.reason}"
