@@ -1,0 +1,100 @@
+"""File exports: spreadsheet-safe CSV, JSON, and atomic writes.
+
+Catalog text comes from outside (distributor exports, vendor files) and is untrusted. A cell
+that a spreadsheet would read as a formula is neutralised before it is written, following the
+OWASP "CSV Injection" guidance: a text cell that begins with ``=``, ``+``, ``-``, ``@``, a tab
+or a carriage return gets a leading apostrophe. Numbers are written as numbers.
+"""
+
+from __future__ import annotations
+
+import csv
+import io
+import json
+import math
+import os
+import tempfile
+from collections.abc import Iterable, Mapping, Sequence
+from pathlib import Path
+
+FORMULA_LEADS = ("=", "+", "-", "@", "\t", "\r")
+
+
+def neutralise_cell(value: object) -> object:
+    """Return ``value`` safe for a spreadsheet: text starting like a formula gets a ``'`` lead.
+
+    Numbers (int, float) are returned unchanged so they stay numbers; None becomes "".
+    """
+    if value is None:
+        return ""
+    if isinstance(value, bool):
+        return "true" if value else "false"
+    if isinstance(value, (int, float)):
+        return "" if isinstance(value, float) and math.isnan(value) else value
+    text = str(value)
+    if text.startswith(FORMULA_LEADS):
+        return "'" + text
+    return text
+
+
+def csv_text(header: Sequence[str], rows: Iterable[Sequence[object]]) -> str:
+    """Return CSV text of ``rows`` under ``header``, every cell neutralised."""
+    buffer = io.StringIO()
+    writer = csv.writer(buffer, lineterminator="\n")
+    writer.writerow([neutralise_cell(h) for h in header])
+    for row in rows:
+        writer.writerow([neutralise_cell(cell) for cell in row])
+    return buffer.getvalue()
+
+
+def json_text(document: object) -> str:
+    """Return ``document`` as indented JSON; NaN becomes null, as JSON has no NaN."""
+    return json.dumps(_nan_to_none(document), indent=2, ensure_ascii=False, allow_nan=False) + "\n"
+
+
+def _nan_to_none(value: object) -> object:
+    if isinstance(value, float) and not math.isfinite(value):
+        return None
+    if isinstance(value, Mapping):
+        return {str(k): _nan_to_none(v) for k, v in value.items()}
+    if isinstance(value, (list, tuple)):
+        return [_nan_to_none(v) for v in value]
+    if hasattr(value, "item") and callable(value.item):  # numpy scalars
+        return _nan_to_none(value.item())
+    return value
+
+
+def write_atomically(path: str | Path, text: str | bytes) -> Path:
+    """Write ``text`` to ``path`` through a temporary file in the same folder, then rename.
+
+    An existing file is either replaced whole or left as it was; never half-written.
+    Returns the path written.
+    """
+    target = Path(path)
+    target.parent.mkdir(parents=True, exist_ok=True)
+    data = text.encode("utf-8") if isinstance(text, str) else text
+    fd, tmp_name = tempfile.mkstemp(prefix=f".{target.name}.", suffix=".tmp", dir=target.parent)
+    try:
+        with os.fdopen(fd, "wb") as handle:
+            handle.write(data)
+            handle.flush()
+            os.fsync(handle.fileno())
+        os.replace(tmp_name, target)
+    except BaseException:
+        Path(tmp_name).unlink(missing_ok=True)
+        raise
+    return target
+
+
+def markdown_table(header: Sequence[str], rows: Iterable[Sequence[object]]) -> str:
+    """Return a GitHub-flavoured Markdown table; pipes inside cells are escaped."""
+
+    def cell(value: object) -> str:
+        return ("" if value is None else str(value)).replace("|", "\\|").replace("\n", " ")
+
+    lines = [
+        "| " + " | ".join(cell(h) for h in header) + " |",
+        "|" + "|".join("---" for _ in header) + "|",
+    ]
+    lines += ["| " + " | ".join(cell(v) for v in row) + " |" for row in rows]
+    return "\n".join(lines) + "\n"
