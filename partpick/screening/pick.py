@@ -1,0 +1,294 @@
+"""Pick the parts for one role: check every part of its kind, classify, rank.
+
+Classification and counting run on numpy arrays over every part; :class:`Outcome` objects are
+built only for the parts a caller will show (all of them with ``top=None``), so a catalog of
+hundreds of thousands of parts is screened without a Python object per part.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Callable
+from dataclasses import dataclass, field
+
+import numpy as np
+
+from partpick.errors import NotFoundError, ProfileError
+from partpick.screening import capacitor, diode, inductor, switch
+from partpick.screening.checks import FAIL, UNVERIFIED, Check, Outcome, Screen
+from partpick.screening.profiles import Profile
+
+ROLES: tuple[str, ...] = ("inductor", "input-cap", "output-cap", "diode", "switch")
+RANKS: tuple[str, ...] = ("loss", "cost", "size")
+# catalog fields read for every role besides the rule fields: identity, price and footprint
+_COMMON_FIELDS: tuple[str, ...] = ("mpn", "manufacturer", "unit_price", "length_mm", "width_mm")
+_PASSED, _UNVERIFIED, _FAILED = 0, 1, 2
+
+
+@dataclass(frozen=True)
+class RoleRules:
+    """The one place a role meets its part kind and its rule set."""
+
+    kind: str
+    fields: tuple[str, ...]
+    screen: Callable[..., Screen]
+
+
+ROLE_RULES: dict[str, RoleRules] = {
+    "inductor": RoleRules(inductor.KIND, inductor.FIELDS, inductor.screen),
+    "input-cap": RoleRules(capacitor.KIND, capacitor.FIELDS, capacitor.screen_input),
+    "output-cap": RoleRules(capacitor.KIND, capacitor.FIELDS, capacitor.screen_output),
+    "diode": RoleRules(diode.KIND, diode.FIELDS, diode.screen),
+    "switch": RoleRules(switch.KIND, switch.FIELDS, switch.screen),
+}
+
+
+@dataclass(frozen=True)
+class PickResult:
+    """The parts of one role, sorted into three ranked lists, and what they were checked at.
+
+    With ``top`` set the lists may be cut, but ``total``, ``counts`` and ``fail_counts``
+    count every part. ``operating_point`` lists (key, label, value, unit, worst_vin_v).
+    """
+
+    role: str
+    profile: Profile
+    envelope: object
+    rank: str
+    total: int
+    passed: list[Outcome]
+    unverified: list[Outcome]
+    failed: list[Outcome]
+    fail_counts: dict[str, int]
+    counts: dict[str, int] = field(default_factory=dict)
+    operating_point: tuple = ()
+    max_parallel: int = 4
+    kind: str = ""
+
+
+def role_rules(role: str) -> RoleRules:
+    """Return the rules of ``role``; NotFoundError naming the roles for an unknown one."""
+    try:
+        return ROLE_RULES[role]
+    except KeyError:
+        raise NotFoundError("role", role, f"Roles are: {', '.join(ROLES)}.") from None
+
+
+def screen_role(
+    db: str | None, spec, role: str, *, profile: Profile, max_parallel: int = 4
+) -> tuple[Screen, object]:
+    """Return (every rule of ``role`` over every part of its kind, the stress envelope)."""
+    rules = role_rules(role)
+    if max_parallel < 1:
+        raise ProfileError(profile.name, "must be a whole number of at least 1", "max_parallel")
+    from partpick.catalog.columns import read_columns
+    from partpick.design.topologies import get_topology
+
+    topology = get_topology(spec.topology)
+    envelope = topology.envelope(spec)
+    names = tuple(dict.fromkeys(_COMMON_FIELDS + rules.fields))
+    columns = read_columns(db, rules.kind, names)
+    screen = rules.screen(columns, spec, envelope, topology, profile, max_parallel)
+    return screen, envelope
+
+
+def pick(
+    db: str | None,
+    spec,
+    role: str,
+    *,
+    profile: Profile,
+    rank: str = "loss",
+    max_parallel: int = 4,
+    top: int | None = None,
+) -> PickResult:
+    """Return every part of ``role``'s kind classified as passed, unverified or failed.
+
+    passed and unverified are ranked by ``rank`` (loss, cost or size; ties by cost, then
+    mpn); failed are ordered closest to passing first (fewest failing rules, then the
+    smallest overshoot of the worst one). With ``top=N`` each list holds at most N parts.
+    """
+    if rank not in RANKS:
+        raise NotFoundError("rank", rank, f"Ranks are: {', '.join(RANKS)}.")
+    screen, envelope = screen_role(db, spec, role, profile=profile, max_parallel=max_parallel)
+    status = classify(screen)
+    keys = ranking_keys(screen, rank)
+    lists = {}
+    for code in (_PASSED, _UNVERIFIED):
+        order = ranked(np.flatnonzero(status == code), keys, screen.columns["mpn"], top)
+        lists[code] = [outcome_at(screen, int(i), code) for i in order]
+    failed_order = closest_failures(screen, np.flatnonzero(status == _FAILED), top)
+    lists[_FAILED] = [outcome_at(screen, int(i), _FAILED) for i in failed_order]
+    return PickResult(
+        role=role,
+        profile=profile,
+        envelope=envelope,
+        rank=rank,
+        total=screen.size,
+        passed=lists[_PASSED],
+        unverified=lists[_UNVERIFIED],
+        failed=lists[_FAILED],
+        fail_counts=fail_counts(screen),
+        counts={
+            "passed": int((status == _PASSED).sum()),
+            "unverified": int((status == _UNVERIFIED).sum()),
+            "failed": int((status == _FAILED).sum()),
+        },
+        operating_point=screen.operating_point,
+        max_parallel=max_parallel,
+        kind=screen.kind,
+    )
+
+
+@dataclass(frozen=True)
+class Explanation:
+    """Every check of one part for one role, with what it was checked at."""
+
+    role: str
+    profile: Profile
+    envelope: object
+    outcome: Outcome
+    operating_point: tuple
+    max_parallel: int
+
+
+def explain(
+    db: str | None, spec, role: str, mpn: str, *, profile: Profile, max_parallel: int = 4
+) -> Explanation:
+    """Return every check of the part ``mpn`` for ``role``; NotFoundError if it is not there."""
+    screen, envelope = screen_role(db, spec, role, profile=profile, max_parallel=max_parallel)
+    hits = np.flatnonzero(screen.columns["mpn"] == mpn)
+    if hits.size == 0:
+        kind = screen.kind
+        raise NotFoundError(f"{kind} part", mpn, "Check the mpn and --role (see 'partpick parts').")
+    i = int(hits[0])
+    status = int(classify(screen)[i])
+    return Explanation(
+        role, profile, envelope, outcome_at(screen, i, status), screen.operating_point,
+        max_parallel,
+    )  # fmt: skip
+
+
+def classify(screen: Screen) -> np.ndarray:
+    """Return each part's outcome code: 0 passed, 1 unverified, 2 failed."""
+    if not screen.rules:
+        return np.zeros(screen.size, dtype=np.int8)
+    codes = np.vstack([r.status for r in screen.rules])
+    failed = (codes == FAIL).any(axis=0)
+    unverified = ~failed & (codes == UNVERIFIED).any(axis=0)
+    return np.where(failed, _FAILED, np.where(unverified, _UNVERIFIED, _PASSED)).astype(np.int8)
+
+
+def fail_counts(screen: Screen) -> dict[str, int]:
+    """Return rule -> number of parts failing it, for every rule (zero included)."""
+    return {r.rule: int((r.status == FAIL).sum()) for r in screen.rules}
+
+
+def part_cost(screen: Screen) -> np.ndarray:
+    """Return count × unit price per part (NaN where the price is unknown)."""
+    return screen.count * screen.columns["unit_price"]
+
+
+def part_area_mm2(screen: Screen) -> np.ndarray:
+    """Return the board area, count × length × width, in mm² (NaN where unknown)."""
+    return screen.count * screen.columns["length_mm"] * screen.columns["width_mm"]
+
+
+def ranking_keys(screen: Screen, rank: str) -> tuple[np.ndarray, np.ndarray]:
+    """Return (primary key, cost) per part, unknown values as +inf so they sort last."""
+    cost = part_cost(screen)
+    primary = {"loss": screen.loss_w, "cost": cost, "size": part_area_mm2(screen)}[rank]
+    return _inf_for_nan(primary), _inf_for_nan(cost)
+
+
+def _inf_for_nan(values: np.ndarray) -> np.ndarray:
+    return np.where(np.isnan(values), np.inf, values)
+
+
+def ranked(
+    indices: np.ndarray, keys: tuple[np.ndarray, ...], mpn: np.ndarray, top: int | None
+) -> np.ndarray:
+    """Return ``indices`` ordered by ``keys`` (first key first), then by mpn, cut to ``top``.
+
+    With ``top`` only the parts whose first key is within the top-N value (ties kept) are
+    sorted in full, so a long list costs one partition rather than a string sort.
+    """
+    if indices.size == 0:
+        return indices
+    first = keys[0][indices]
+    if top is not None and top < indices.size:
+        if top <= 0:
+            return indices[:0]
+        cut = np.partition(first, top - 1)[top - 1]
+        indices = indices[first <= cut]
+    names = np.asarray(mpn[indices], dtype=str)
+    order = np.lexsort((names,) + tuple(k[indices] for k in reversed(keys)))
+    result = indices[order]
+    return result if top is None else result[:top]
+
+
+def closest_failures(screen: Screen, indices: np.ndarray, top: int | None) -> np.ndarray:
+    """Return failed ``indices`` closest to passing first: fewest failing rules, then the
+    smallest worst overshoot (load = stress/limit of the worst failing rule), then mpn."""
+    if indices.size == 0 or not screen.rules:
+        return indices
+    codes = np.vstack([r.status[indices] for r in screen.rules])
+    loads = np.vstack([r.load[indices] for r in screen.rules])
+    failing = codes == FAIL
+    n_failing = failing.sum(axis=0).astype(float)
+    worst = np.where(failing, np.nan_to_num(loads, nan=np.inf), -np.inf).max(axis=0)
+    full = np.zeros(screen.size)
+    keys = (_scatter(full, indices, n_failing), _scatter(full, indices, worst))
+    return ranked(indices, keys, screen.columns["mpn"], top)
+
+
+def _scatter(template: np.ndarray, indices: np.ndarray, values: np.ndarray) -> np.ndarray:
+    out = template.copy()
+    out[indices] = values
+    return out
+
+
+def outcome_at(screen: Screen, i: int, code: int) -> Outcome:
+    """Return the Outcome of part ``i`` with every check that applies to it."""
+    checks: list[Check] = []
+    for rule in screen.rules:
+        check = rule.check_at(i)
+        if check is not None:
+            checks.append(check)
+    missing = tuple(dict.fromkeys(m for c in checks for m in c.missing))
+    cols = screen.columns
+    count = int(screen.count[i])
+    area = cols["length_mm"][i] * cols["width_mm"][i] * count
+    return Outcome(
+        mpn=str(cols["mpn"][i]),
+        manufacturer=_text(cols["manufacturer"][i]),
+        role=screen.role,
+        status=("passed", "unverified", "failed")[code],
+        count=count,
+        loss_w=_number(screen.loss_w[i]),
+        unit_price=_number(cols["unit_price"][i]),
+        cost=_number(cols["unit_price"][i] * count),
+        area_mm2=_number(area),
+        checks=tuple(checks),
+        notes=tuple(text for text, mask in screen.notes if mask[i]),
+        missing=missing,
+        part={name: _value(values[i]) for name, values in cols.items()},
+    )
+
+
+def _number(value) -> float | None:
+    value = float(value)
+    return None if np.isnan(value) else value
+
+
+def _text(value) -> str:
+    return "" if value is None else str(value)
+
+
+def _value(value) -> object:
+    if isinstance(value, np.floating):
+        return _number(value)
+    if isinstance(value, np.integer):
+        return int(value)
+    if isinstance(value, np.bool_):
+        return bool(value)
+    return value
