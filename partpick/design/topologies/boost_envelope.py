@@ -1,0 +1,243 @@
+"""The boost envelope: named worst-case figures, the CCM/DCM verdict, cautions and warnings."""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+import numpy as np
+
+from partpick.design.cautions import (
+    QUALIFIED_ENGINEER,
+    hazardous_voltage_caution,
+    high_duty_warning,
+    stored_energy_caution,
+    stored_energy_j,
+)
+from partpick.design.eseries import e_values_between
+from partpick.design.spec import Spec
+from partpick.design.topologies.base import Caution, Envelope, Figure
+from partpick.design.topologies.boost_equations import (
+    boost_duty_cycle,
+    ccm_conversion_ratio,
+    ccm_k_critical,
+    ccm_k_factor,
+    critical_inductance_h,
+    dcm_conversion_ratio,
+    dcm_duty_cycle,
+    effective_load_resistance_ohm,
+    esr_max_ohm,
+    inductor_average_current_a,
+    input_capacitance_min_f,
+    output_capacitance_min_f,
+)
+from partpick.design.topologies.boost_model import (
+    OperatingGrid,
+    inductance_limits_h,
+    operating_grid,
+    worst_stresses,
+)
+from partpick.units import format_eng
+
+RECOMMENDED_SERIES = "E12"
+
+
+class _Figures:
+    """Collects figures in display order."""
+
+    def __init__(self) -> None:
+        self.items: dict[str, Figure] = {}
+
+    def add(self, key, value, unit, group, label, vin=None) -> None:
+        value = None if value is None else float(value)
+        vin = None if vin is None else float(vin)
+        self.items[key] = Figure(key, value, unit, group, label, vin)
+
+
+@dataclass(frozen=True)
+class _Conduction:
+    ccm: bool
+    ccm_light_load: bool | None
+    dcm_ratio_light_load: float | None
+    warnings: tuple[Caution, ...]
+
+
+def build_envelope(spec: Spec) -> Envelope:
+    """Return the boost envelope of ``spec``: every issue-3 figure plus extras, SI units."""
+    grid = operating_grid(spec)
+    l_min, l_max, vin_star = inductance_limits_h(spec)
+    figures = _Figures()
+    _add_converter_and_duty(figures, spec)
+    window_warnings = _add_inductor(figures, spec, grid, l_min, l_max, vin_star)
+    _add_semiconductors_and_caps(figures, spec, grid, l_min)
+    conduction = _add_conduction(figures, spec, grid, l_min)
+    duty_max = figures.items["duty_max"].value
+    warnings = [w for w in (high_duty_warning(duty_max, spec.vin_min_v),) if w]
+    warnings += [*window_warnings, *conduction.warnings]
+    return Envelope(
+        spec=spec,
+        figures=figures.items,
+        ccm=conduction.ccm,
+        ccm_light_load=conduction.ccm_light_load,
+        dcm_ratio_light_load=conduction.dcm_ratio_light_load,
+        cautions=_cautions(spec, figures.items),
+        warnings=tuple(warnings),
+    )
+
+
+def _add_converter_and_duty(figures: _Figures, spec: Spec) -> None:
+    pout_w = spec.vout_v * spec.iout_a
+    figures.add("pout_w", pout_w, "W", "converter", "output power")
+    figures.add("pin_max_w", pout_w / spec.efficiency, "W", "converter", "input power at η")
+    figures.add("loss_budget_w", pout_w * (1 / spec.efficiency - 1), "W", "converter",
+                "loss budget at η")  # fmt: skip
+    figures.add("r_load_ohm", spec.vout_v / spec.iout_a, "ohm", "converter", "full-load resistance")
+    for key, vin, label in (
+        ("duty_min", spec.vin_max_v, "duty cycle, lowest"),
+        ("duty_max", spec.vin_min_v, "duty cycle, highest"),
+    ):
+        duty = boost_duty_cycle(vin, spec.vout_v, spec.efficiency)
+        figures.add(key, duty, "fraction", "duty", label, vin)
+
+
+def _add_inductor(
+    figures: _Figures, spec: Spec, grid: OperatingGrid, l_min: float, l_max: float, vin_star: float
+) -> list[Caution]:
+    il_at_vin_min = float(inductor_average_current_a(spec.iout_a, grid.duty[0]))
+    fits = e_values_between(l_min, l_max, RECOMMENDED_SERIES)
+    recommended = fits[0] if fits else None
+    add = figures.add
+    add("vin_star_v", vin_star, "V", "inductor", "input voltage of largest ripple", vin_star)
+    add("l_min_h", l_min, "H", "inductor", "inductance, minimum (ripple hi)", vin_star)
+    add("l_max_h", l_max, "H", "inductor", "inductance, maximum (ripple lo)", vin_star)
+    add("l_recommended_h", recommended, "H", "inductor", "inductance, recommended E12", vin_star)
+    add("il_avg_max_a", il_at_vin_min, "A", "inductor", "average current", spec.vin_min_v)
+    worst = worst_stresses(spec, np.array([l_min]))
+    for key, name, label in (
+        ("il_ripple_max_a", "il_ripple", "ripple p-p at l_min"),
+        ("il_peak_max_a", "il_peak", "peak current at l_min"),
+        ("il_rms_max_a", "il_rms", "RMS current at l_min"),
+    ):
+        add(key, worst[name][0][0], "A", "inductor", label, worst[name][1][0])
+    ripple = spec.ripple_ratio_hi * il_at_vin_min
+    add(
+        "ripple_at_l_min_a", ripple, "A", "inductor", "ripple at l_min (hi·IL at vin_min)", vin_star
+    )
+    if recommended is not None:
+        at_rec = worst_stresses(spec, np.array([recommended]))
+        add("il_ripple_at_l_recommended_a", at_rec["il_ripple"][0][0], "A", "inductor",
+            "ripple p-p at the recommended L", at_rec["il_ripple"][1][0])  # fmt: skip
+        add("il_peak_at_l_recommended_a", at_rec["il_peak"][0][0], "A", "inductor",
+            "peak current at the recommended L", at_rec["il_peak"][1][0])  # fmt: skip
+        return []
+    return [_no_standard_value_warning(l_min, l_max)]
+
+
+def _no_standard_value_warning(l_min: float, l_max: float) -> Caution:
+    return Caution(
+        "no-standard-inductance",
+        f"No {RECOMMENDED_SERIES} value lies between {format_eng(l_min, 'H')} and "
+        f"{format_eng(l_max, 'H')}; widen ripple_ratio or use a non-standard inductance.",
+    )
+
+
+def _add_semiconductors_and_caps(
+    figures: _Figures, spec: Spec, grid: OperatingGrid, l_min: float
+) -> None:
+    worst = worst_stresses(spec, np.array([l_min]))
+    peak, peak_vin = worst["il_peak"][0][0], worst["il_peak"][1][0]
+    v_off = spec.vout_v + spec.vout_ripple_v / 2  # ringing is left to the derating
+    add = figures.add
+    add(
+        "isw_rms_max_a",
+        worst["isw_rms"][0][0],
+        "A",
+        "switch",
+        "RMS current",
+        worst["isw_rms"][1][0],
+    )
+    add("isw_peak_max_a", peak, "A", "switch", "peak current", peak_vin)
+    add("vsw_max_v", v_off, "V", "switch", "off-state voltage")
+    add("id_avg_a", spec.iout_a, "A", "diode", "average current")
+    add("id_peak_max_a", peak, "A", "diode", "peak current", peak_vin)
+    add("id_rms_max_a", worst["id_rms"][0][0], "A", "diode", "RMS current", worst["id_rms"][1][0])
+    add("vd_reverse_max_v", v_off, "V", "diode", "reverse voltage")
+    duty_max = grid.duty[0]
+    cout_min = output_capacitance_min_f(spec.iout_a, duty_max, spec.fsw_hz, spec.vout_ripple_v)
+    add("icout_rms_max_a", worst["icout_rms"][0][0], "A", "output-cap", "RMS current",
+        worst["icout_rms"][1][0])  # fmt: skip
+    add("cout_min_f", cout_min, "F", "output-cap", "capacitance, minimum", spec.vin_min_v)
+    add("esr_max_ohm", esr_max_ohm(spec.vout_ripple_v, peak), "ohm", "output-cap",
+        "ESR, maximum", peak_vin)  # fmt: skip
+    add("vcout_max_v", v_off, "V", "output-cap", "voltage")
+    add("cout_energy_j", stored_energy_j(cout_min, spec.vout_v), "J", "output-cap",
+        "stored energy at the minimum capacitance")  # fmt: skip
+    ripple, ripple_vin = worst["il_ripple"][0][0], worst["il_ripple"][1][0]
+    add("icin_rms_max_a", worst["icin_rms"][0][0], "A", "input-cap", "RMS current",
+        worst["icin_rms"][1][0])  # fmt: skip
+    add("vcin_max_v", spec.vin_max_v, "V", "input-cap", "voltage", spec.vin_max_v)
+    if spec.vin_ripple_v is not None:
+        cin_min = input_capacitance_min_f(ripple, spec.fsw_hz, spec.vin_ripple_v)
+        add("cin_min_f", cin_min, "F", "input-cap", "capacitance, minimum", ripple_vin)
+
+
+def _add_conduction(
+    figures: _Figures, spec: Spec, grid: OperatingGrid, l_min: float
+) -> _Conduction:
+    """Add the CCM/DCM figures (Erickson & Maksimovic ch. 5) and return the verdicts."""
+    kcrit = ccm_k_critical(grid.duty)
+    worst = int(np.argmax(kcrit))
+    vin_worst = grid.vin_v[worst]
+    r_full = effective_load_resistance_ohm(spec.vout_v, spec.iout_a, spec.efficiency)
+    k_full = float(ccm_k_factor(l_min, r_full, spec.fsw_hz))
+    l_crit = critical_inductance_h(grid.duty[worst], r_full, spec.fsw_hz)
+    add = figures.add
+    add("k_crit_max", kcrit[worst], "", "inductor", "K_crit = D(1−D)², largest", vin_worst)
+    add("k_full_load", k_full, "", "inductor", "K = 2L/(R·Ts), full load at l_min")
+    add("l_crit_h", l_crit, "H", "inductor", "critical inductance, full load", vin_worst)
+    ccm = bool(k_full > kcrit[worst])
+    warnings = [] if ccm else [_full_load_dcm_warning(vin_worst)]
+    if spec.iout_min_a is None:
+        return _Conduction(ccm, None, None, tuple(warnings))
+    r_light = effective_load_resistance_ohm(spec.vout_v, spec.iout_min_a, spec.efficiency)
+    k_light = float(ccm_k_factor(l_min, r_light, spec.fsw_hz))
+    add("k_light_load", k_light, "", "inductor", "K at iout_min and l_min")
+    l_crit_light = critical_inductance_h(grid.duty[worst], r_light, spec.fsw_hz)
+    add("l_crit_light_load_h", l_crit_light, "H", "inductor", "critical inductance, iout_min",
+        vin_worst)  # fmt: skip
+    if k_light > kcrit[worst]:
+        return _Conduction(ccm, True, None, tuple(warnings))
+    ratio = float(dcm_conversion_ratio(grid.duty[worst], k_light))
+    duty_dcm = dcm_duty_cycle(ccm_conversion_ratio(grid.duty[worst]), k_light)
+    add("dcm_ratio_light_load", ratio, "", "duty", "DCM ratio M at the CCM duty, iout_min",
+        vin_worst)  # fmt: skip
+    add("duty_light_load_dcm", duty_dcm, "fraction", "duty", "duty needed in DCM at iout_min",
+        vin_worst)  # fmt: skip
+    warnings.append(_light_load_dcm_warning(spec, vin_worst, ratio, float(duty_dcm)))
+    return _Conduction(ccm, False, ratio, tuple(warnings))
+
+
+def _full_load_dcm_warning(vin_v: float) -> Caution:
+    return Caution(
+        "full-load-dcm",
+        f"At l_min the full load runs into DCM near {format_eng(vin_v, 'V')} in; the CCM "
+        "stresses do not hold there: raise the inductance or narrow the input range.",
+    )
+
+
+def _light_load_dcm_warning(spec: Spec, vin_v: float, ratio: float, duty: float) -> Caution:
+    return Caution(
+        "light-load-dcm",
+        f"At iout_min ({format_eng(spec.iout_min_a, 'A')}) the converter runs in DCM near "
+        f"{format_eng(vin_v, 'V')} in: the CCM duty would give M = {ratio:.3g}, so the "
+        f"controller must cut the duty to about {duty:.3g} (Erickson & Maksimovic ch. 5).",
+    )
+
+
+def _cautions(spec: Spec, figures: dict[str, Figure]) -> tuple[Caution, ...]:
+    highest_v = max(spec.vin_max_v, figures["vsw_max_v"].value)
+    found = [
+        hazardous_voltage_caution(highest_v),
+        stored_energy_caution(figures["cout_min_f"].value, spec.vout_v),
+        QUALIFIED_ENGINEER,
+    ]
+    return tuple(c for c in found if c is not None)
