@@ -42,13 +42,18 @@ class LineEnvelope:
     def evaluate(self, u: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
         """Return (max over lines of p + q·u, the x of the maximising line) per entry of ``u``."""
         u = np.asarray(u, dtype=float)
+        last = len(self.xs) - 1
         index = np.searchsorted(self.breakpoints, u, side="left")
-        # Rounding at a breakpoint may pick a neighbour; taking the best of three is exact.
-        candidates = np.stack([np.clip(index + k, 0, len(self.xs) - 1) for k in (-1, 0, 1)])
-        values = self.intercepts[candidates] + self.slopes[candidates] * u
-        best = np.argmax(values, axis=0)
-        chosen = np.take_along_axis(candidates, best[None, ...], axis=0)[0]
-        return np.take_along_axis(values, best[None, ...], axis=0)[0], self.xs[chosen]
+        best = self.intercepts[index] + self.slopes[index] * u
+        chosen = index
+        # Rounding at a breakpoint may pick a neighbour; the best of the three is exact.
+        for step in (-1, 1):
+            other = np.clip(index + step, 0, last)
+            value = self.intercepts[other] + self.slopes[other] * u
+            better = value > best
+            best = np.where(better, value, best)
+            chosen = np.where(better, other, chosen)
+        return best, self.xs[chosen]
 
 
 def _upper_hull(p: np.ndarray, q: np.ndarray) -> list[int]:

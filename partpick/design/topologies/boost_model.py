@@ -122,13 +122,16 @@ def worst_stresses(
     Non-positive or missing inductances give NaN.
     """
     inductance = np.asarray(inductance_h, dtype=float)
-    valid = np.isfinite(inductance) & (inductance > 0)
-    inverse = np.where(valid, 1.0 / np.where(valid, inductance, 1.0), 0.0)
+    # Catalogs repeat a few hundred standard values, so work once per distinct inductance.
+    distinct, back = np.unique(inductance.ravel(), return_inverse=True)
+    valid = np.isfinite(distinct) & (distinct > 0)
+    inverse = np.where(valid, 1.0 / np.where(valid, distinct, 1.0), 0.0)
     results = {}
     for name, (envelope, power) in _stress_envelopes(spec).items():
         value, vin = envelope.evaluate(inverse**power)
         value = np.sqrt(value) if power == 2 else value
-        results[name] = (np.where(valid, value, np.nan), np.where(valid, vin, np.nan))
+        value, vin = np.where(valid, value, np.nan), np.where(valid, vin, np.nan)
+        results[name] = (value[back].reshape(inductance.shape), vin[back].reshape(inductance.shape))
     return results
 
 
