@@ -13,6 +13,8 @@ from __future__ import annotations
 import re
 from dataclasses import dataclass, field
 
+from partpick.units import normalise_text, unit_dimensions
+
 KINDS: tuple[str, ...] = ("inductor", "capacitor", "diode", "mosfet")
 
 
@@ -22,7 +24,9 @@ class Field:
 
     ``type`` is ``"float"`` (SI value in ``unit``), ``"int"``, ``"text"``, ``"enum"`` (one
     of ``choices``, reached through ``aliases``) or ``"bool"``. ``positive`` marks a value that
-    cannot be zero or negative in any real part.
+    cannot be zero or negative in any real part. ``magnitude`` marks a rating that p-channel
+    datasheets print with a minus sign (``-30 V``); the catalog keeps its magnitude.
+    ``aliases`` maps :func:`fold_text` of each accepted spelling to its choice.
     """
 
     name: str
@@ -34,6 +38,7 @@ class Field:
     choices: tuple[str, ...] = ()
     aliases: dict[str, str] = field(default_factory=dict)
     required: bool = False
+    magnitude: bool = False
 
     def __post_init__(self) -> None:
         if self.type not in ("float", "int", "text", "enum", "bool"):
@@ -43,20 +48,56 @@ class Field:
 
 
 def _enum_aliases(choices: tuple[str, ...], extra: dict[str, str]) -> dict[str, str]:
-    aliases = {normalise_header(c): c for c in choices}
-    aliases.update({normalise_header(k): v for k, v in extra.items()})
+    aliases = {fold_text(c): c for c in choices}
+    aliases.update({fold_text(k): v for k, v in extra.items()})
     return aliases
+
+
+def fold_text(text: str) -> str:
+    """Return ``text`` in lower case with every character but letters and digits removed.
+
+    ``"Al-Electrolytic"`` gives ``"alelectrolytic"``; µ, μ and the ohm signs are folded
+    first (see :func:`partpick.units.normalise_text`) and θ becomes ``theta``.
+    """
+    text = normalise_text(text).lower().replace("θ", "theta")
+    return re.sub(r"[^0-9a-z]+", "", text)
+
+
+_GROUP_RE = re.compile(r"[\(\[\{]([^\)\]\}]*)[\)\]\}]")
+_TRAILING_UNIT_RE = re.compile(r",\s*([^,]+?)\s*$")
+
+
+def split_header_units(text: str) -> tuple[str, tuple[str, ...]]:
+    """Split a header into its words and the unit texts it carries.
+
+    A unit is a bracketed group (``"DCR (mΩ)"``, ``"Inductance [uH]"``) or a last
+    comma-separated part (``"Isat, A"``) that reads as a unit of some dimension. Groups that
+    are not units (``"Saturation Current (Isat)"``, ``"Rds(on)"``) stay in the words.
+    """
+    units_found: list[str] = []
+
+    def take(match: re.Match[str]) -> str:
+        inner = match.group(1).strip()
+        if unit_dimensions(inner):
+            units_found.append(inner)
+            return " "
+        return match.group(0)
+
+    words = _GROUP_RE.sub(take, text)
+    trailing = _TRAILING_UNIT_RE.search(words)
+    if trailing is not None and unit_dimensions(trailing.group(1)):
+        units_found.append(trailing.group(1).strip())
+        words = words[: trailing.start()]
+    return words.strip(), tuple(units_found)
 
 
 def normalise_header(text: str) -> str:
     """Return ``text`` folded for matching: lower case, no punctuation, spacing or bracketed unit.
 
-    ``"Saturation Current (Isat), A"`` and ``"saturation-current isat"`` both give
-    ``"saturationcurrentisat"``.
+    ``"Saturation Current (Isat), A"`` and ``"saturation-current (isat)"`` both give
+    ``"saturationcurrentisat"``; ``"DCR (mΩ)"`` gives ``"dcr"``.
     """
-    text = re.sub(r"[\(\[\{][^\)\]\}]*[\)\]\}]", " ", text)
-    text = re.sub(r",\s*[^,]*$", "", text) if re.search(r",\s*\S+\s*$", text) else text
-    return re.sub(r"[^0-9a-z]+", "", text.lower().replace("µ", "u"))
+    return fold_text(split_header_units(text)[0])
 
 
 _DIELECTRIC_CODES = (
@@ -162,7 +203,8 @@ COMMON_FIELDS: tuple[Field, ...] = (
             "PN",
             "Part",
             "Order Code",
-            "Type",
+            "Item Number",
+            "Article Number",
         ),
     ),
     Field(
@@ -534,6 +576,7 @@ KIND_FIELDS: dict[str, tuple[Field, ...]] = {
             "V",
             "drain-source breakdown voltage",
             positive=True,
+            magnitude=True,
             synonyms=(
                 "Drain-Source Voltage (Vds)",
                 "Vds",
@@ -549,6 +592,7 @@ KIND_FIELDS: dict[str, tuple[Field, ...]] = {
             "A",
             "continuous drain current",
             positive=True,
+            magnitude=True,
             synonyms=(
                 "Continuous Drain Current (Id)",
                 "Id",
@@ -570,6 +614,7 @@ KIND_FIELDS: dict[str, tuple[Field, ...]] = {
             "V",
             "gate threshold voltage",
             positive=True,
+            magnitude=True,
             synonyms=("Vgs(th)", "Gate Threshold Voltage", "Vgs(th) (Max)", "Vth"),
         ),
         Field(

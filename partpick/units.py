@@ -53,7 +53,7 @@ UNIT_WORDS: dict[str, dict[str, float]] = {
     "Hz": {"hz": 1.0, "hertz": 1.0},
     "s": {"s": 1.0, "sec": 1.0},
     "C": {"c": 1.0, "coulomb": 1.0},
-    "degC": {"degc": 1.0, "°c": 1.0, "c": 1.0, "deg c": 1.0, "deg": 1.0},
+    "degC": {"degc": 1.0, "°c": 1.0, "c": 1.0, "deg c": 1.0, "deg": 1.0, "°": 1.0},
     "degC/W": {"degc/w": 1.0, "°c/w": 1.0, "c/w": 1.0, "k/w": 1.0},
     "mm": {"mm": 1.0},
     "h": {"h": 1.0, "hr": 1.0, "hrs": 1.0, "hour": 1.0, "hours": 1.0},
@@ -76,7 +76,8 @@ _NUMBER_RE = re.compile(rf"^({_NUMBER})\s*(.*)$")
 _IEC_RE = re.compile(r"^(\d+)([pnumkKMGR])(\d+)\s*(.*)$")
 _R_LEAD_RE = re.compile(r"^R(\d+)\s*(.*)$")
 _QUALIFIER_RE = re.compile(
-    r"\s*(?:@.*|\b(?:max|maximum|typ|typical|min|minimum|nom)\.?\s*)$", re.IGNORECASE
+    r"\s*(?:@.*|[\(\[]?\b(?:max|maximum|typ|typical|min|minimum|nom|nominal)\.?[\)\]]?\s*)$",
+    re.IGNORECASE,
 )
 _RANGE_RE = re.compile(r"\s*(?:~|\bto\b|\.\.\.|…)\s*")
 _THOUSANDS_RE = re.compile(r"^[+-]?\d{1,3}(?:,\d{3})+(?:\.\d+)?")
@@ -143,6 +144,17 @@ def unit_multiplier(unit_text: str, unit: str) -> float:
     if factor is None:
         raise UnitError(unit_text, unit, f"not a unit of {dimension_name(unit)}")
     return factor
+
+
+def unit_dimensions(unit_text: str) -> tuple[str, ...]:
+    """Return the dimension keys of which ``unit_text`` (``"mΩ"``, ``"A"``, ``"%"``) is a unit.
+
+    Empty when the text is no unit at all, such as ``"Isat"`` or ``"on"``.
+    """
+    text = normalise_text(unit_text)
+    if not text or text[0].isdigit():
+        return ()
+    return tuple(unit for unit in UNIT_WORDS if _suffix_factor(text, unit) is not None)
 
 
 def _suffix_factor(rest: str, unit: str) -> float | None:

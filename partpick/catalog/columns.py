@@ -1,0 +1,192 @@
+"""The fast read path: every part of one kind as numpy columns.
+
+Screening reads a whole kind at once (250,000 inductors must arrive in a few tens of ms), so
+each kind has a columnar snapshot beside an SQLite catalog (``partpick.db.columns/inductor.npz``,
+no pickles). The snapshot records the catalog's ``db_uuid`` and ``generation`` from
+``catalog_meta``; every import bumps the generation in its transaction, so a stale or foreign
+snapshot is detected with one stdlib ``sqlite3`` query and rebuilt. This module imports neither
+pandas nor SQLAlchemy unless the catalog is not an SQLite file.
+"""
+
+from __future__ import annotations
+
+import contextlib
+import os
+import sqlite3
+import tempfile
+from collections.abc import Sequence
+from pathlib import Path
+
+import numpy as np
+
+from partpick.catalog.location import resolve_db_url, snapshot_file, sqlite_file
+from partpick.errors import DatabaseError, NotFoundError
+from partpick.fields import KINDS, Field, fields_of
+
+SNAPSHOT_VERSION = "1"
+_META = "__meta__"
+_MISSING = "__missing__"
+
+
+def read_columns(
+    db: str | None, kind: str, names: Sequence[str] | None = None
+) -> dict[str, np.ndarray]:
+    """Return every part of ``kind`` as columns keyed by field name, in catalog order.
+
+    Keys are ``mpn``, ``manufacturer`` and ``names`` (default: every field of the kind).
+    Float and int fields are float64 with NaN where missing; text, enum and bool fields are
+    object arrays with None where missing.
+    """
+    wanted = _wanted_fields(kind, names)
+    url = resolve_db_url(db)
+    path = sqlite_file(url)
+    if path is None:
+        return _from_sql(url, kind, wanted)
+    if not path.exists():
+        return {f.name: _empty(f) for f in wanted}
+    stamp = _stamp(url, path)
+    arrays = _load_snapshot(snapshot_file(path, kind), stamp, wanted)
+    if arrays is None:
+        arrays = write_snapshot(url, kind)
+    return {f.name: _decode(arrays, f) for f in wanted}
+
+
+def _wanted_fields(kind: str, names: Sequence[str] | None) -> list[Field]:
+    if kind not in KINDS:
+        raise NotFoundError("part kind", kind, f"Choose one of {', '.join(KINDS)}.")
+    by_name = {f.name: f for f in fields_of(kind)}
+    chosen = ["mpn", "manufacturer"] + [
+        n for n in (names or by_name) if n not in ("mpn", "manufacturer")
+    ]
+    for name in chosen:
+        if name not in by_name:
+            raise NotFoundError(f"{kind} field", name, "See partpick.fields for the field names.")
+    return [by_name[n] for n in chosen]
+
+
+def _empty(f: Field) -> np.ndarray:
+    return np.empty(0, dtype=float if f.type in ("float", "int") else object)
+
+
+def _connect(path: Path) -> sqlite3.Connection:
+    conn = sqlite3.connect(f"file:{path}?mode=ro", uri=True, isolation_level=None)
+    conn.execute("PRAGMA query_only=ON")
+    return conn
+
+
+def _stamp(url: str, path: Path) -> tuple[str, str]:
+    """Return (db_uuid, generation) of the catalog, creating its tables first if it has none."""
+    for attempt in range(2):
+        try:
+            with contextlib.closing(_connect(path)) as conn:
+                rows = dict(conn.execute("SELECT key, value FROM catalog_meta").fetchall())
+                return rows["db_uuid"], rows["generation"]
+        except (sqlite3.OperationalError, KeyError):
+            if attempt:
+                raise
+            _create_tables(url)
+        except sqlite3.DatabaseError as exc:
+            raise DatabaseError(url, f"cannot be read ({exc})") from None
+    raise AssertionError("unreachable")
+
+
+def _create_tables(url: str) -> None:
+    from partpick.catalog.store import open_engine
+
+    open_engine(url)
+
+
+def _load_snapshot(file: Path, stamp: tuple[str, str], wanted: list[Field]) -> dict | None:
+    try:
+        archive = np.load(file, allow_pickle=False)
+    except (OSError, ValueError):
+        return None
+    with archive:
+        meta = archive[_META].tolist() if _META in archive.files else []
+        if meta != [stamp[0], stamp[1], SNAPSHOT_VERSION]:
+            return None
+        keys = [f.name for f in wanted] + [_MISSING + f.name for f in wanted]
+        if any(f.name not in archive.files for f in wanted):
+            return None
+        return {k: archive[k] for k in keys if k in archive.files}
+
+
+def write_snapshot(url: str, kind: str) -> dict[str, np.ndarray]:
+    """Rebuild the snapshot of ``kind`` from the catalog; return its arrays (encoded form).
+
+    Rows and the stamp are read in one read transaction, so they belong together. The file
+    is written beside the database and renamed into place, so readers see old or new, whole.
+    """
+    path = sqlite_file(url)
+    if path is None:
+        raise DatabaseError(url, "a columnar snapshot needs an SQLite file database")
+    fields = fields_of(kind)
+    with contextlib.closing(_connect(path)) as conn:
+        conn.execute("BEGIN")
+        meta = dict(conn.execute("SELECT key, value FROM catalog_meta").fetchall())
+        names = ", ".join(f'"{f.name}"' for f in fields)
+        rows = conn.execute(f"SELECT {names} FROM parts_{kind} ORDER BY id").fetchall()
+        conn.execute("COMMIT")
+    arrays = encode_columns(fields, rows)
+    arrays[_META] = np.array([meta["db_uuid"], meta["generation"], SNAPSHOT_VERSION])
+    _save(snapshot_file(path, kind), arrays)
+    return arrays
+
+
+def encode_columns(fields: Sequence[Field], rows: list[tuple]) -> dict[str, np.ndarray]:
+    """Return pickle-free arrays for ``rows``: floats, text plus a missing mask, int8 bools."""
+    columns = list(zip(*rows, strict=True)) if rows else [() for _ in fields]
+    arrays: dict[str, np.ndarray] = {}
+    for f, column in zip(fields, columns, strict=True):
+        if f.type in ("float", "int"):
+            arrays[f.name] = np.array(column, dtype=float).reshape(-1)
+            continue
+        values = np.array(column, dtype=object).reshape(-1)
+        missing = np.equal(values, None)
+        if f.type == "bool":
+            arrays[f.name] = np.where(missing, -1, values.astype(bool, copy=False)).astype(np.int8)
+        else:
+            arrays[f.name] = np.where(missing, "", values).astype(str)
+            arrays[_MISSING + f.name] = missing
+    return arrays
+
+
+def _decode(arrays: dict[str, np.ndarray], f: Field) -> np.ndarray:
+    raw = arrays[f.name]
+    if f.type in ("float", "int"):
+        return raw.astype(float, copy=False)
+    if f.type == "bool":
+        out = np.where(raw == 1, True, False).astype(object)
+        out[raw < 0] = None
+        return out
+    out = raw.astype(object)
+    out[arrays[_MISSING + f.name]] = None
+    return out
+
+
+def _save(file: Path, arrays: dict[str, np.ndarray]) -> None:
+    file.parent.mkdir(parents=True, exist_ok=True)
+    handle, temp = tempfile.mkstemp(dir=file.parent, prefix=f".{file.stem}.", suffix=".tmp")
+    try:
+        with os.fdopen(handle, "wb") as out:
+            np.savez(out, **arrays)
+        os.replace(temp, file)
+    except BaseException:
+        with contextlib.suppress(OSError):
+            os.unlink(temp)
+        raise
+
+
+def _from_sql(url: str, kind: str, wanted: list[Field]) -> dict[str, np.ndarray]:
+    """Read the columns through SQLAlchemy (in-memory and non-SQLite catalogs)."""
+    import sqlalchemy as sa
+
+    from partpick.catalog.schema import parts_table
+    from partpick.catalog.store import open_engine
+
+    table = parts_table(kind)
+    query = sa.select(*(table.c[f.name] for f in wanted)).order_by(table.c.id)
+    with open_engine(url).connect() as conn:
+        rows = [tuple(r) for r in conn.execute(query)]
+    arrays = encode_columns(wanted, rows)
+    return {f.name: _decode(arrays, f) for f in wanted}

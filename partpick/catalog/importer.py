@@ -1,0 +1,186 @@
+"""Import CSV catalogs: sniff, read in chunks, validate column by column, upsert in one transaction.
+
+The core never prints. :func:`import_catalog` returns one :class:`ImportReport` per file and
+raises :class:`~partpick.errors.CatalogFormatError` (a file that cannot be read at all) or
+:class:`~partpick.errors.StrictImportError` (``strict`` and a row was rejected). Either way,
+and on any other error or an interruption, the catalog is left exactly as it was: every file
+of one call is merged inside one transaction.
+"""
+
+from __future__ import annotations
+
+import datetime as dt
+from collections.abc import Callable, Sequence
+from dataclasses import dataclass
+from pathlib import Path
+
+import sqlalchemy as sa
+
+from partpick.catalog import merge
+from partpick.catalog.headers import ColumnMatch, MapFile, check_map_for_kind, load_map
+from partpick.catalog.reading import PreparedFile, Reject, prepare_file, read_chunks
+from partpick.catalog.schema import import_batches
+from partpick.catalog.store import bump_generation, open_engine, resolve_db_url
+from partpick.errors import CatalogFormatError, NotFoundError, StrictImportError
+from partpick.fields import KINDS
+
+CHUNK_ROWS = 50_000
+
+__all__ = ["ImportProgress", "ImportReport", "Reject", "import_catalog"]
+
+
+@dataclass(frozen=True)
+class ImportProgress:
+    """How far the import of one file has got, for a progress bar."""
+
+    file: str
+    bytes_done: int
+    bytes_total: int
+    rows_done: int
+
+
+@dataclass(frozen=True)
+class ImportReport:
+    """What importing one file did."""
+
+    file: str
+    kind: str
+    sha256: str
+    batch_id: int
+    encoding: str
+    delimiter: str
+    rows: int  # data rows read (blank lines not counted)
+    added: int
+    updated: int
+    unchanged: int
+    rejected: int  # rows rejected (a row may have several bad cells)
+    rejects: tuple[Reject, ...]
+    columns: tuple[ColumnMatch, ...]
+    unrecognised: tuple[str, ...]
+    ignored: tuple[str, ...]
+    constants: tuple[str, ...]
+
+
+ProgressHook = Callable[[ImportProgress], None]
+
+
+def import_catalog(
+    db: str | None,
+    files: Sequence[str | Path],
+    kind: str | None = None,
+    *,
+    map_file: str | Path | MapFile | None = None,
+    strict: bool = False,
+    progress: ProgressHook | None = None,
+    chunk_rows: int = CHUNK_ROWS,
+) -> list[ImportReport]:
+    """Import ``files`` as parts of ``kind`` into the catalog ``db``; return one report per file.
+
+    ``kind`` falls back to the map file's ``kind``. Every file is checked (encoding, header)
+    before the database is touched, and all files are merged in one transaction.
+    """
+    mapping = load_map(map_file) if isinstance(map_file, str | Path) else map_file
+    kind = _resolve_kind(kind, mapping, files)
+    if mapping is not None:
+        check_map_for_kind(mapping, kind)
+    prepared = [prepare_file(path, kind, mapping) for path in files]
+    engine = open_engine(db)
+    reports = []
+    with engine.begin() as conn:
+        for item in prepared:
+            reports.append(_import_one(conn, item, strict, progress, chunk_rows))
+        bump_generation(conn)
+    _refresh_snapshot(db, kind)
+    return reports
+
+
+def _resolve_kind(kind: str | None, mapping: MapFile | None, files: Sequence) -> str:
+    chosen = kind or (mapping.kind if mapping is not None else None)
+    if chosen is None:
+        first = str(files[0]) if files else "(no file)"
+        raise CatalogFormatError(
+            first, "say which kind of part it holds: --kind " + "|".join(KINDS)
+        )
+    if chosen not in KINDS:
+        raise NotFoundError("part kind", chosen, f"Choose one of {', '.join(KINDS)}.")
+    return chosen
+
+
+def _import_one(
+    conn: sa.Connection,
+    item: PreparedFile,
+    strict: bool,
+    progress: ProgressHook | None,
+    chunk_rows: int,
+) -> ImportReport:
+    imported_at = dt.datetime.now(dt.UTC).isoformat(timespec="seconds")
+    batch_id = _start_batch(conn, item, imported_at)
+    merge.create_stage(conn, item.kind)
+    rejects: list[Reject] = []
+    rows = 0
+    for chunk in read_chunks(item, chunk_rows):
+        merge.stage_rows(conn, item.kind, chunk.rows)
+        rejects.extend(chunk.rejects)
+        rows += chunk.row_count
+        if progress is not None:
+            progress(ImportProgress(item.path, chunk.bytes_done, item.format.size_bytes, rows))
+    rejects.extend(_reject_duplicates(conn, item))
+    rejects.sort(key=lambda r: r.line)
+    rejected = len({r.line for r in rejects})
+    if strict and rejects:
+        first = rejects[0]
+        raise StrictImportError(
+            item.path, rejected, f"line {first.line}, {first.column}: {first.reason}"
+        )
+    source = (Path(item.path).name, item.format.sha256, imported_at)
+    counts = merge.merge_stage(conn, item.kind, batch_id=batch_id, source=source)
+    conn.execute(
+        import_batches.update()
+        .where(import_batches.c.id == batch_id)
+        .values(
+            rows=rows,
+            added=counts.added,
+            updated=counts.updated,
+            unchanged=counts.unchanged,
+            rejected=rejected,
+        )
+    )
+    return ImportReport(
+        file=item.path, kind=item.kind, sha256=item.format.sha256, batch_id=batch_id,
+        encoding=item.format.encoding, delimiter=item.format.delimiter, rows=rows,
+        added=counts.added, updated=counts.updated, unchanged=counts.unchanged,
+        rejected=rejected, rejects=tuple(rejects), columns=item.plan.matches,
+        unrecognised=item.plan.unrecognised, ignored=item.plan.ignored,
+        constants=tuple(item.constants),
+    )  # fmt: skip
+
+
+def _start_batch(conn: sa.Connection, item: PreparedFile, imported_at: str) -> int:
+    result = conn.execute(
+        import_batches.insert().values(
+            file=str(Path(item.path).resolve()), sha256=item.format.sha256,
+            imported_at=imported_at, kind=item.kind, rows=0, added=0, updated=0,
+            unchanged=0, rejected=0,
+        )
+    )  # fmt: skip
+    return int(result.inserted_primary_key[0])
+
+
+def _reject_duplicates(conn: sa.Connection, item: PreparedFile) -> list[Reject]:
+    duplicates = merge.find_duplicates(conn)
+    merge.drop_lines(conn, [line for line, *_ in duplicates])
+    header = item.mpn_header
+    return [
+        Reject(line, header, mpn, f"same manufacturer and part number as line {first}")
+        for line, _manufacturer, mpn, first in duplicates
+    ]
+
+
+def _refresh_snapshot(db: str | None, kind: str) -> None:
+    """Rewrite the columnar snapshot of ``kind`` after the commit; a stale one is rebuilt later."""
+    from partpick.catalog import columns
+
+    try:
+        columns.write_snapshot(resolve_db_url(db), kind)
+    except OSError:
+        pass  # the generation moved on, so the next read_columns rebuilds it

@@ -1,0 +1,276 @@
+"""Read one catalog file: check it can be imported at all, then yield validated chunks of rows.
+
+Line numbers follow the file: the header is line 1 (after any ``skip_rows``), the first part
+line 2. They count CSV records, so a quoted cell spanning two lines counts once.
+"""
+
+from __future__ import annotations
+
+import itertools
+import re
+import warnings
+from collections.abc import Iterator
+from dataclasses import dataclass
+from pathlib import Path
+
+import numpy as np
+import pandas as pd
+
+from partpick.catalog.cells import ColumnValues, convert_column, extra_json
+from partpick.catalog.headers import ColumnMatch, HeaderPlan, MapFile, match_headers
+from partpick.catalog.schema import stored_fields
+from partpick.catalog.sniff import FileFormat, sniff_file
+from partpick.errors import CatalogFormatError, MapFileError
+from partpick.fields import KIND_FIELDS, field_of
+from partpick.units import unit_multiplier
+
+_BAD_LINE_RE = re.compile(r"Skipping line (\d+): expected (\d+) fields, saw (\d+)")
+WHOLE_ROW = "(whole row)"
+
+
+@dataclass(frozen=True)
+class Reject:
+    """One bad cell (or bad row) of a file, with the reason it was refused."""
+
+    line: int
+    column: str
+    value: str
+    reason: str
+
+
+@dataclass(frozen=True)
+class PreparedFile:
+    """A file whose format and header have been checked, ready to be read."""
+
+    path: str
+    kind: str
+    format: FileFormat
+    plan: HeaderPlan
+    headers: tuple[str, ...]
+    skip_rows: int
+    decimal_comma: bool
+    constants: dict[str, ColumnValues]
+    mpn_header: str
+
+
+@dataclass(frozen=True)
+class Chunk:
+    """Validated rows of one chunk, in staging-column order, and the rejects found in it."""
+
+    rows: list[tuple]
+    rejects: list[Reject]
+    row_count: int
+    bytes_done: int
+
+
+def prepare_file(path: str | Path, kind: str, mapping: MapFile | None) -> PreparedFile:
+    """Check the file's encoding, delimiter and header; raises CatalogFormatError if unusable."""
+    name = str(path)
+    skip_rows = mapping.skip_rows if mapping else 0
+    fmt = sniff_file(
+        path,
+        encoding=mapping.encoding if mapping else None,
+        delimiter=mapping.delimiter if mapping else None,
+        skip_rows=skip_rows,
+    )
+    headers = _read_header(name, fmt, skip_rows)
+    plan = match_headers(headers, kind, mapping, name)
+    _require_columns(name, kind, headers, plan)
+    mpn_header = next(m.header for m in plan.matches if m.field == "mpn")
+    return PreparedFile(
+        path=name,
+        kind=kind,
+        format=fmt,
+        plan=plan,
+        headers=headers,
+        skip_rows=skip_rows,
+        decimal_comma=bool(mapping and mapping.decimal == ","),
+        constants=_constants(mapping, kind, plan),
+        mpn_header=mpn_header,
+    )
+
+
+def _open_reader(source, fmt: FileFormat, skip_rows: int, **options):
+    return pd.read_csv(
+        source,
+        sep=fmt.delimiter,
+        encoding=fmt.encoding,
+        header=None,
+        dtype=str,
+        skiprows=skip_rows,
+        keep_default_na=False,
+        na_filter=False,
+        skip_blank_lines=False,
+        on_bad_lines="warn",
+        engine="c",
+        **options,
+    )
+
+
+def _read_header(name: str, fmt: FileFormat, skip_rows: int) -> tuple[str, ...]:
+    try:
+        with warnings.catch_warnings():
+            warnings.simplefilter("ignore", pd.errors.ParserWarning)
+            first = _open_reader(name, fmt, skip_rows, nrows=1)
+    except pd.errors.EmptyDataError:
+        raise CatalogFormatError(name, "no header row: the file has no lines to read") from None
+    except (pd.errors.ParserError, UnicodeDecodeError, ValueError) as exc:
+        raise CatalogFormatError(name, f"not a readable CSV file ({exc})".strip()) from None
+    if first.empty:
+        raise CatalogFormatError(name, "no header row: the file has no lines to read")
+    cells = [str(c).strip() for c in first.iloc[0].tolist()]
+    return tuple(cell or f"(column {i + 1})" for i, cell in enumerate(cells))
+
+
+def _require_columns(name: str, kind: str, headers: tuple[str, ...], plan: HeaderPlan) -> None:
+    found = {m.field for m in plan.matches}
+    if "mpn" not in found:
+        if _looks_like_values(headers):
+            raise CatalogFormatError(name, "no header row: the first line holds values", 1)
+        if len(headers) == 1:
+            raise CatalogFormatError(
+                name, "not a CSV table: the first line has no comma, semicolon or tab", 1
+            )
+        wordings = ", ".join(repr(s) for s in field_of(kind, "mpn").synonyms[:4])
+        raise CatalogFormatError(
+            name, f"no part-number column (a header such as {wordings}); map one in a map file", 1
+        )
+    own = {f.name for f in KIND_FIELDS[kind]}
+    if not own & found:
+        examples = ", ".join(f.synonyms[0] for f in KIND_FIELDS[kind][:4] if f.synonyms)
+        raise CatalogFormatError(
+            name, f"no column holds a {kind} value (such as {examples}); is --kind right?", 1
+        )
+
+
+def _looks_like_values(headers: tuple[str, ...]) -> bool:
+    numeric = sum(bool(re.match(r"^[+-]?\.?\d", h)) for h in headers)
+    return numeric * 2 >= len(headers)
+
+
+def _constants(mapping: MapFile | None, kind: str, plan: HeaderPlan) -> dict[str, ColumnValues]:
+    if mapping is None:
+        return {}
+    constants = {}
+    for name, value in mapping.constants.items():
+        f = field_of(kind, name)
+        scale = unit_multiplier(mapping.units[name], f.unit) if name in mapping.units else 1.0
+        text = str(value).lower() if isinstance(value, bool) else str(value)
+        converted = convert_column(
+            pd.Series([text], dtype=object), f, scale=scale, decimal_comma=mapping.decimal == ","
+        )
+        if converted.bad[0]:
+            raise MapFileError(mapping.path, str(converted.reasons[0]), f"constants.{name}")
+        constants[name] = converted
+    return constants
+
+
+def read_chunks(item: PreparedFile, chunk_rows: int) -> Iterator[Chunk]:
+    """Yield validated chunks of the file's rows; raises CatalogFormatError if it breaks midway."""
+    skipped: list[int] = []  # line numbers of rows pandas skipped for having too many fields
+    reported = 0
+    with open(item.path, "rb") as handle:
+        reader = _open_reader(handle, item.format, item.skip_rows, chunksize=chunk_rows)
+        offset = 1  # the header row is the first row pandas returns
+        with reader:
+            while (frame := _next_frame(item.path, reader, skipped)) is not None:
+                lines = _line_numbers(frame.index.to_numpy(), sorted(skipped), item)
+                chunk = _validate(item, frame.iloc[offset:], lines[offset:], handle.tell())
+                offset = 0
+                chunk.rejects.extend(_bad_line_rejects(skipped[reported:]))
+                reported = len(skipped)
+                yield chunk
+
+
+def _next_frame(name: str, reader, skipped: list[int]) -> pd.DataFrame | None:
+    with warnings.catch_warnings(record=True) as caught:
+        warnings.simplefilter("always", pd.errors.ParserWarning)
+        try:
+            frame = next(reader, None)
+        except (pd.errors.ParserError, UnicodeDecodeError, ValueError) as exc:
+            raise CatalogFormatError(name, f"not a readable CSV file ({exc})") from None
+    for warning in caught:
+        for match in _BAD_LINE_RE.finditer(str(warning.message)):
+            skipped.append(int(match.group(1)))
+    return frame
+
+
+def _line_numbers(index: np.ndarray, skipped: list[int], item: PreparedFile) -> np.ndarray:
+    """Return the file line of each row index, allowing for the bad lines pandas skipped."""
+    first = item.skip_rows + 1
+    shifts = np.asarray(skipped, dtype=np.int64) - first - np.arange(len(skipped))
+    return first + index + np.searchsorted(shifts, index, side="right")
+
+
+def _bad_line_rejects(lines: list[int]) -> list[Reject]:
+    return [
+        Reject(line, WHOLE_ROW, "", "this line has more fields than the header") for line in lines
+    ]
+
+
+def _validate(item: PreparedFile, frame: pd.DataFrame, lines: np.ndarray, done: int) -> Chunk:
+    frame = frame.fillna("")
+    keep = ~frame.eq("").all(axis=1).to_numpy()
+    frame, lines = frame[keep], lines[keep]
+    count = len(frame)
+    values: dict[str, np.ndarray] = {}
+    bad = np.zeros(count, dtype=bool)
+    rejects: list[Reject] = []
+    for match in item.plan.matches:
+        column = _convert(frame, match, item)
+        values[match.field] = column.values
+        bad |= column.bad
+        rejects.extend(_cell_rejects(frame[match.position], column, lines, match.header))
+    _apply_constants(values, item, count)
+    missing_mpn = pd.isna(values["mpn"])
+    for row in np.flatnonzero(missing_mpn & ~bad):
+        rejects.append(Reject(int(lines[row]), item.mpn_header, "", "the part number is missing"))
+    bad |= missing_mpn
+    good = ~bad
+    unrecognised = [(h, i) for i, h in enumerate(item.headers) if h in item.plan.unrecognised]
+    values["extra"] = extra_json(frame, unrecognised)
+    rows = _row_tuples(item.kind, values, good, lines)
+    return Chunk(rows, rejects, count, done)
+
+
+def _convert(frame: pd.DataFrame, match: ColumnMatch, item: PreparedFile) -> ColumnValues:
+    f = field_of(item.kind, match.field)
+    return convert_column(
+        frame[match.position], f, scale=match.scale, decimal_comma=item.decimal_comma
+    )
+
+
+def _cell_rejects(
+    cells: pd.Series, column: ColumnValues, lines: np.ndarray, header: str
+) -> list[Reject]:
+    rows = np.flatnonzero(column.bad)
+    raw = cells.to_numpy()
+    return [Reject(int(lines[r]), header, str(raw[r]), str(column.reasons[r])) for r in rows]
+
+
+def _apply_constants(values: dict[str, np.ndarray], item: PreparedFile, count: int) -> None:
+    for name, constant in item.constants.items():
+        value = constant.values[0]
+        if name not in values:
+            values[name] = np.full(count, value, dtype=constant.values.dtype)
+        else:
+            column = values[name]
+            column[pd.isna(column)] = value
+
+
+def _row_tuples(
+    kind: str, values: dict[str, np.ndarray], good: np.ndarray, lines: np.ndarray
+) -> list[tuple]:
+    manufacturer = values.get("manufacturer")
+    columns: list = [
+        ["" if m is None else m for m in manufacturer[good].tolist()]
+        if manufacturer is not None
+        else itertools.repeat(""),
+        values["mpn"][good].tolist(),
+    ]
+    for f in stored_fields(kind):
+        column = values.get(f.name)
+        columns.append(itertools.repeat(None) if column is None else column[good].tolist())
+    columns.append(values["extra"][good].tolist())
+    columns.append(lines[good].tolist())
+    return list(zip(*columns, strict=False))

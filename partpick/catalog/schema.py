@@ -1,0 +1,117 @@
+"""SQLAlchemy tables, generated from the data dictionary in :mod:`partpick.fields`.
+
+One parts table per kind (``parts_inductor``, ``parts_capacitor`` ...): each kind has its own
+fields, and a table per kind keeps every column meaningful and every read a plain scan.
+Each table holds the identity (``kind``, ``manufacturer``, ``mpn``, unique together), the
+kind's canonical fields as SI floats, ``extra`` (JSON text of the columns the importer did
+not recognise) and the provenance of the row (file, hash, time, line, batch).
+
+``import_batches`` records every imported file; ``catalog_meta`` holds the generation counter
+that the columnar snapshot (:mod:`partpick.catalog.columns`) checks for freshness.
+"""
+
+from __future__ import annotations
+
+from sqlalchemy import (
+    Boolean,
+    CheckConstraint,
+    Column,
+    Float,
+    ForeignKey,
+    Integer,
+    MetaData,
+    String,
+    Table,
+    Text,
+    UniqueConstraint,
+)
+
+from partpick.fields import KINDS, PROVENANCE_COLUMNS, Field, fields_of
+
+IDENTITY_COLUMNS: tuple[str, ...] = ("kind", "manufacturer", "mpn")
+
+metadata = MetaData()
+
+import_batches = Table(
+    "import_batches",
+    metadata,
+    Column("id", Integer, primary_key=True),
+    Column("file", Text, nullable=False),
+    Column("sha256", String(64), nullable=False),
+    Column("imported_at", String(32), nullable=False),
+    Column("kind", String(16), nullable=False),
+    Column("rows", Integer, nullable=False),
+    Column("added", Integer, nullable=False),
+    Column("updated", Integer, nullable=False),
+    Column("unchanged", Integer, nullable=False),
+    Column("rejected", Integer, nullable=False),
+)
+
+catalog_meta = Table(
+    "catalog_meta",
+    metadata,
+    Column("key", String(32), primary_key=True),
+    Column("value", Text, nullable=False),
+)
+
+
+def table_name(kind: str) -> str:
+    """Return the name of the parts table of ``kind``."""
+    return f"parts_{kind}"
+
+
+def stored_fields(kind: str) -> tuple[Field, ...]:
+    """Return the fields of ``kind`` stored as plain columns (all but the identity)."""
+    return tuple(f for f in fields_of(kind) if f.name not in IDENTITY_COLUMNS)
+
+
+def _column_for(f: Field) -> Column:
+    if f.type == "float":
+        return Column(f.name, Float, comment=f"{f.description} [{f.unit}]")
+    if f.type == "int":
+        return Column(f.name, Integer, comment=f.description)
+    if f.type == "bool":
+        return Column(f.name, Boolean, comment=f.description)
+    return Column(f.name, Text, comment=f.description)
+
+
+def _enum_checks(kind: str) -> list[CheckConstraint]:
+    checks = []
+    for f in stored_fields(kind):
+        if f.type == "enum":
+            allowed = ", ".join(f"'{choice}'" for choice in f.choices)
+            checks.append(CheckConstraint(f"{f.name} IN ({allowed})", name=f"ck_{kind}_{f.name}"))
+    return checks
+
+
+def _parts_table(kind: str) -> Table:
+    provenance = {
+        "source_file": Column("source_file", Text),
+        "source_sha256": Column("source_sha256", String(64)),
+        "imported_at": Column("imported_at", String(32)),
+        "source_line": Column("source_line", Integer),
+    }
+    assert tuple(provenance) == PROVENANCE_COLUMNS
+    return Table(
+        table_name(kind),
+        metadata,
+        Column("id", Integer, primary_key=True),
+        Column("kind", String(16), nullable=False),
+        Column("manufacturer", Text, nullable=False, default=""),
+        Column("mpn", Text, nullable=False),
+        *(_column_for(f) for f in stored_fields(kind)),
+        Column("extra", Text),
+        *provenance.values(),
+        Column("batch_id", Integer, ForeignKey("import_batches.id")),
+        UniqueConstraint(*IDENTITY_COLUMNS, name=f"uq_{kind}_identity"),
+        CheckConstraint(f"kind = '{kind}'", name=f"ck_{kind}_kind"),
+        *_enum_checks(kind),
+    )
+
+
+PARTS_TABLES: dict[str, Table] = {kind: _parts_table(kind) for kind in KINDS}
+
+
+def parts_table(kind: str) -> Table:
+    """Return the parts table of ``kind``; raises KeyError for an unknown kind."""
+    return PARTS_TABLES[kind]

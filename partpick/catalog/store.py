@@ -1,0 +1,134 @@
+"""Open the catalog database and answer the small questions about it (batches, counts).
+
+The database is named by ``--db``, else ``$PARTPICK_DB``, else ``./partpick.db``. A plain path
+becomes an SQLite URL; anything with ``://`` is taken as an SQLAlchemy URL. SQLite runs in WAL
+mode, so a reader never sees a half-finished import.
+"""
+
+from __future__ import annotations
+
+import uuid
+from dataclasses import dataclass
+
+import sqlalchemy as sa
+from sqlalchemy import event, func, select
+
+from partpick.catalog.location import resolve_db_url, sqlite_file
+from partpick.catalog.schema import PARTS_TABLES, catalog_meta, import_batches, metadata
+from partpick.errors import DatabaseError
+from partpick.fields import KINDS
+
+__all__ = ["Batch", "count_parts", "list_batches", "open_engine", "resolve_db_url", "sqlite_file"]
+
+
+@dataclass(frozen=True)
+class Batch:
+    """One imported file, as recorded in ``import_batches``."""
+
+    id: int
+    file: str
+    sha256: str
+    imported_at: str
+    kind: str
+    rows: int
+    added: int
+    updated: int
+    unchanged: int
+    rejected: int
+
+
+def open_engine(db: str | None) -> sa.Engine:
+    """Return an engine on the catalog with its tables created (SQLite in WAL mode).
+
+    Engines are cached per URL, so repeated calls in one process share one pool.
+    """
+    url = resolve_db_url(db)
+    if url not in _ENGINES:
+        _ENGINES[url] = _new_engine(url)
+    return _ENGINES[url]
+
+
+_ENGINES: dict[str, sa.Engine] = {}
+
+
+def _new_engine(url: str) -> sa.Engine:
+    path = sqlite_file(url)
+    if path is not None and not path.parent.is_dir():
+        raise DatabaseError(url, f"the folder {path.parent} does not exist")
+    try:
+        engine = sa.create_engine(url)
+    except (sa.exc.ArgumentError, sa.exc.NoSuchModuleError, ImportError) as exc:
+        raise DatabaseError(url, f"not a usable database URL ({exc})") from None
+    if engine.dialect.name == "sqlite":
+        event.listen(engine, "connect", _sqlite_pragmas)
+    try:
+        _create_schema(engine)
+    except sa.exc.DatabaseError as exc:
+        engine.dispose()
+        raise DatabaseError(url, f"cannot be opened ({exc.orig})") from None
+    return engine
+
+
+def _sqlite_pragmas(dbapi_connection, _record) -> None:
+    cursor = dbapi_connection.cursor()
+    cursor.execute("PRAGMA journal_mode=WAL")
+    # NORMAL is durable at every checkpoint and safe against corruption in WAL mode.
+    cursor.execute("PRAGMA synchronous=NORMAL")
+    cursor.execute("PRAGMA foreign_keys=ON")
+    cursor.close()
+
+
+def _create_schema(engine: sa.Engine) -> None:
+    with engine.begin() as conn:
+        metadata.create_all(conn)
+        _add_missing_columns(conn)
+        known = conn.execute(select(catalog_meta.c.key)).scalars().all()
+        defaults = {"generation": "0", "db_uuid": uuid.uuid4().hex, "schema_version": "1"}
+        missing = [{"key": k, "value": v} for k, v in defaults.items() if k not in known]
+        if missing:
+            conn.execute(catalog_meta.insert(), missing)
+
+
+def _add_missing_columns(conn: sa.Connection) -> None:
+    """Add columns for fields added to the data dictionary since the database was made."""
+    inspector = sa.inspect(conn)
+    for table in PARTS_TABLES.values():
+        present = {c["name"] for c in inspector.get_columns(table.name)}
+        for column in table.columns:
+            if column.name not in present:
+                kind = column.type.compile(dialect=conn.dialect)
+                conn.exec_driver_sql(f'ALTER TABLE {table.name} ADD COLUMN "{column.name}" {kind}')
+
+
+def dispose_engines() -> None:
+    """Close every cached engine (tests use this between databases)."""
+    while _ENGINES:
+        _ENGINES.popitem()[1].dispose()
+
+
+def bump_generation(conn: sa.Connection) -> int:
+    """Add one to the catalog generation inside the caller's transaction; return the new value."""
+    current = conn.execute(
+        select(catalog_meta.c.value).where(catalog_meta.c.key == "generation")
+    ).scalar_one()
+    new = int(current) + 1
+    conn.execute(
+        catalog_meta.update().where(catalog_meta.c.key == "generation").values(value=str(new))
+    )
+    return new
+
+
+def list_batches(db: str | None) -> list[Batch]:
+    """Return every import batch, oldest first."""
+    with open_engine(db).connect() as conn:
+        rows = conn.execute(select(import_batches).order_by(import_batches.c.id)).mappings()
+        return [Batch(**row) for row in rows]
+
+
+def count_parts(db: str | None) -> dict[str, int]:
+    """Return the number of parts of each kind, in the order of :data:`partpick.fields.KINDS`."""
+    with open_engine(db).connect() as conn:
+        return {
+            kind: conn.execute(select(func.count()).select_from(PARTS_TABLES[kind])).scalar_one()
+            for kind in KINDS
+        }
