@@ -17,6 +17,8 @@ Loss (for ranking): I_rms² · DCR at the part's minimum L
 
 from __future__ import annotations
 
+from typing import NamedTuple
+
 import numpy as np
 
 from partpick.losses import inductor_dcr_loss_w
@@ -102,6 +104,24 @@ def srf_rule(srf_hz, fsw_hz: float, ratio: float) -> RuleResult:
     )  # fmt: skip
 
 
+def stresses_at_each(topology, spec, inductance_h: np.ndarray):
+    """Return ``topology.stresses_at`` for each inductance, computed once per distinct value.
+
+    Catalogs repeat a few standard values (IEC 60063 series times a tolerance), so this is
+    far less work than one evaluation per part; the result is the same either way.
+    """
+    distinct, inverse = np.unique(inductance_h, return_inverse=True)
+    st = topology.stresses_at(spec, distinct)
+    return _Stress(*(getattr(st, name)[inverse] for name in _Stress._fields))
+
+
+class _Stress(NamedTuple):
+    il_peak_a: np.ndarray
+    il_peak_vin_v: np.ndarray
+    il_rms_a: np.ndarray
+    il_rms_vin_v: np.ndarray
+
+
 def screen(columns, spec, envelope, topology, profile, max_parallel: int) -> Screen:
     """Return every inductor rule over every part in ``columns`` for ``spec``.
 
@@ -113,7 +133,7 @@ def screen(columns, spec, envelope, topology, profile, max_parallel: int) -> Scr
     tol_default = profile.value("inductor.tolerance_default")
     l_part = minimum_inductance_h(nominal, columns["tolerance"], tol_default)
     l_part = np.where(np.isfinite(l_part) & (l_part > 0), l_part, l_min)
-    st = topology.stresses_at(spec, l_part)
+    st = stresses_at_each(topology, spec, l_part)
     rules = (
         window_rule(nominal, l_min, l_max),
         saturation_rule(
