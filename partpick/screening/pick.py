@@ -13,6 +13,7 @@ from dataclasses import dataclass, field
 import numpy as np
 
 from partpick.errors import NotFoundError, ProfileError
+from partpick.fields import fields_of
 from partpick.screening import capacitor, diode, inductor, switch
 from partpick.screening.checks import FAIL, UNVERIFIED, Check, Outcome, Screen
 from partpick.screening.profiles import Profile
@@ -80,15 +81,28 @@ def screen_role(
     rules = role_rules(role)
     if max_parallel < 1:
         raise ProfileError(profile.name, "must be a whole number of at least 1", "max_parallel")
-    from partpick.catalog.columns import read_columns
     from partpick.design.topologies import get_topology
 
     topology = get_topology(spec.topology)
     envelope = topology.envelope(spec)
-    names = tuple(dict.fromkeys(_COMMON_FIELDS + rules.fields))
-    columns = read_columns(db, rules.kind, names)
+    columns = read_role_columns(db, rules)
     screen = rules.screen(columns, spec, envelope, topology, profile, max_parallel)
     return screen, envelope
+
+
+def read_role_columns(db: str | None, rules: RoleRules) -> dict[str, np.ndarray]:
+    """Return the columns the role needs; a field its kind lacks (a diode has no length_mm)
+    comes back all-missing, so every rule module sees the same keys."""
+    from partpick.catalog.columns import read_columns
+
+    known = {f.name for f in fields_of(rules.kind)}
+    wanted = tuple(dict.fromkeys(_COMMON_FIELDS + rules.fields))
+    columns = read_columns(db, rules.kind, [n for n in wanted if n in known])
+    size = columns["mpn"].shape[0]
+    for name in wanted:
+        if name not in columns:
+            columns[name] = np.full(size, np.nan)
+    return columns
 
 
 def pick(
