@@ -1,0 +1,353 @@
+"""The periodic orbit of a boost power stage with its real parts, solved exactly.
+
+The circuit is switched and piecewise linear. Its states are the inductor current iL and the
+voltage vC on the (ideal) capacitance of the output bank, behind the bank's ESR; the output is
+vo = vC + ESR · iC. With z = [iL, vC, 1], each interval is the LTI system dz/dt = F z:
+
+* **on** (switch closed): Vin drives L through DCR + R_DS(on)·k_hot; C feeds the load R.
+* **off** (diode conducting): L drives C ∥ R through V_F + R_D.
+* **idle** (DCM only): iL has reached zero, the diode blocks, C alone feeds R.
+
+An interval of length t maps z(0) to e^{F t} z(0) (the state-transition matrix and forced
+response, from the matrix exponential of the augmented system), and its integral
+∫ z dt = (∫₀ᵗ e^{F s} ds) z(0) comes from the same exponential of a block matrix [VL]. The
+periodic condition x(T) = x(0) is solved directly as a 2 × 2 linear system; in DCM the
+inductor current starts each period at zero, so only vC(0) is unknown, and the instant the
+current reaches zero is found with a bracketed root finder. Power figures are exact integrals
+of quadratic forms of z (Van Loan's block exponential), so the energy balance closes.
+
+References
+----------
+.. [EM] R. W. Erickson and D. Maksimovic, *Fundamentals of Power Electronics*, 3rd ed.,
+   Springer, 2020: ch. 2-3 (the boost and its steady state), ch. 5 (DCM).
+.. [VL] C. F. Van Loan, "Computing integrals involving the matrix exponential", *IEEE Trans.
+   Automatic Control* 23(3), 1978.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+
+import numpy as np
+from scipy.linalg import expm
+from scipy.optimize import brentq, minimize_scalar
+
+from partpick.verify.stage import Stage
+
+MODE_CCM = "ccm"
+MODE_DCM = "dcm"
+DUTY_MIN = 1e-4
+DUTY_MAX = 0.99
+
+
+@dataclass(frozen=True, eq=False)
+class Circuit:
+    """The interval systems of one stage at one input voltage and load resistance.
+
+    ``systems[name]`` is the 3 × 3 matrix F of dz/dt = F z, z = [iL (A), vC (V), 1];
+    ``vout_rows[name]`` and ``icap_rows[name]`` give vo = row · z (V) and iC = row · z (A).
+    """
+
+    stage: Stage
+    vin_v: float
+    load_ohm: float
+    systems: dict[str, np.ndarray]
+    vout_rows: dict[str, np.ndarray]
+    icap_rows: dict[str, np.ndarray]
+
+    @property
+    def period_s(self) -> float:
+        return 1.0 / self.stage.fsw_hz
+
+
+def boost_circuit(stage: Stage, vin_v: float, load_ohm: float) -> Circuit:
+    """Return the on, off and idle systems of a boost stage (circuit laws, [EM] ch. 2).
+
+    vin_v: input voltage, in V; load_ohm: load resistance, in Ω. With R_p = R + ESR:
+    on: L diL/dt = Vin − (DCR + R_on) iL, C dvC/dt = −vC/R_p;
+    off: L diL/dt = Vin − V_F − (DCR + R_D + R·ESR/R_p) iL − (R/R_p) vC, C dvC/dt = (R iL − vC)/R_p;
+    idle: diL/dt = 0 with iL = 0, C dvC/dt = −vC/R_p.
+    """
+    if not (vin_v > 0 and math.isfinite(vin_v)):
+        raise ValueError(f"vin_v must be positive, got {vin_v!r}")
+    if not (load_ohm > 0 and math.isfinite(load_ohm)):
+        raise ValueError(f"load_ohm must be positive, got {load_ohm!r}")
+    inductance, capacitance = stage.inductance_h, stage.cout_total_f
+    esr, r_load = stage.esr_total_ohm, load_ohm
+    r_par = r_load + esr
+    r_on = stage.dcr_ohm + stage.rds_on_hot_ohm
+    r_off = stage.dcr_ohm + stage.diode_rd_ohm + r_load * esr / r_par
+    decay = -1.0 / (r_par * capacitance)
+    on = np.array([[-r_on / inductance, 0.0, vin_v / inductance], [0.0, decay, 0.0], [0, 0, 0]])
+    off = np.array(
+        [
+            [
+                -r_off / inductance,
+                -r_load / r_par / inductance,
+                (vin_v - stage.diode_vf_v) / inductance,
+            ],
+            [r_load / (r_par * capacitance), decay, 0.0],
+            [0.0, 0.0, 0.0],
+        ]
+    )
+    idle = np.array([[0.0, 0.0, 0.0], [0.0, decay, 0.0], [0.0, 0.0, 0.0]])
+    blocked_vout = np.array([0.0, r_load / r_par, 0.0])
+    blocked_icap = np.array([0.0, -1.0 / r_par, 0.0])
+    return Circuit(
+        stage=stage,
+        vin_v=float(vin_v),
+        load_ohm=float(load_ohm),
+        systems={"on": on, "off": off, "idle": idle},
+        vout_rows={
+            "on": blocked_vout,
+            "off": np.array([r_load * esr / r_par, r_load / r_par, 0.0]),
+            "idle": blocked_vout,
+        },
+        icap_rows={
+            "on": blocked_icap,
+            "off": np.array([r_load / r_par, -1.0 / r_par, 0.0]),
+            "idle": blocked_icap,
+        },
+    )
+
+
+def propagator(system: np.ndarray, duration_s: float) -> np.ndarray:
+    """Return e^{F t}: the state-transition matrix with the forced response in its last column."""
+    return expm(system * duration_s)
+
+
+def propagator_with_integral(
+    system: np.ndarray, duration_s: float
+) -> tuple[np.ndarray, np.ndarray]:
+    """Return (e^{F t}, ∫₀ᵗ e^{F s} ds), both from one exponential of [[F, 0], [I, 0]] ([VL])."""
+    n = system.shape[0]
+    block = np.zeros((2 * n, 2 * n))
+    block[:n, :n] = system
+    block[n:, :n] = np.eye(n)
+    exp = expm(block * duration_s)
+    return exp[:n, :n], exp[n:, :n]
+
+
+def second_moment(system: np.ndarray, duration_s: float, z_start: np.ndarray) -> np.ndarray:
+    """Return ∫₀ᵗ z zᵀ ds for z(s) = e^{F s} z₀, by Van Loan's block exponential ([VL] thm 1).
+
+    With C = [[−F, Q], [0, Fᵀ]] and Q = z₀z₀ᵀ, e^{C t} = [[·, G], [0, H]] and the integral is Hᵀ G.
+    """
+    n = system.shape[0]
+    block = np.zeros((2 * n, 2 * n))
+    block[:n, :n] = -system
+    block[:n, n:] = np.outer(z_start, z_start)
+    block[n:, n:] = system.T
+    exp = expm(block * duration_s)
+    moment = exp[n:, n:].T @ exp[:n, n:]
+    return 0.5 * (moment + moment.T)
+
+
+@dataclass(frozen=True, eq=False)
+class Segment:
+    """One interval of the periodic orbit: its name, start, length, state at its start, ∫ z dt."""
+
+    name: str
+    start_s: float
+    duration_s: float
+    z_start: np.ndarray
+    integral: np.ndarray
+
+
+@dataclass(frozen=True, eq=False)
+class Orbit:
+    """The periodic orbit of a circuit at one duty: its mode and its segments in time order."""
+
+    circuit: Circuit
+    duty: float
+    mode: str
+    segments: tuple[Segment, ...]
+
+    def vout_average_v(self) -> float:
+        """The exact average of vo over the period, in V."""
+        total = sum(self.circuit.vout_rows[s.name] @ s.integral for s in self.segments)
+        return float(total / self.circuit.period_s)
+
+
+def _plan_segments(
+    plan: list[tuple[str, float, np.ndarray, np.ndarray]], z_start: np.ndarray
+) -> tuple[Segment, ...]:
+    """Return the segments of ``plan`` (name, duration, e^{F t}, ∫ e^{F s} ds) from z_start."""
+    segments, start, z = [], 0.0, z_start
+    for name, duration, exp, integral in plan:
+        segments.append(Segment(name, start, duration, z, integral @ z))
+        z, start = exp @ z, start + duration
+    return tuple(segments)
+
+
+def _interval(circuit: Circuit, name: str, duration: float):
+    exp, integral = propagator_with_integral(circuit.systems[name], duration)
+    return name, duration, exp, integral
+
+
+def _periodic_start(on_map: np.ndarray, off_map: np.ndarray) -> np.ndarray:
+    """Return z(0) of the two-interval orbit: solve (I − Φ) x₀ = forced for x₀."""
+    period_map = off_map @ on_map
+    (a, b), (c, d) = np.eye(2) - period_map[:2, :2]
+    forced_i, forced_v = period_map[:2, 2]
+    # Cramer's rule: a 2 × 2 system, where a general solver's overhead would dominate
+    det = a * d - b * c
+    return np.array([(forced_i * d - b * forced_v) / det, (a * forced_v - c * forced_i) / det, 1.0])
+
+
+def _dcm_state(circuit: Circuit, on_map: np.ndarray, t_zero: float, t_idle: float):
+    """Return (vC(0), iL at the end of the off interval) for a trial zero-current instant.
+
+    iL(0) = 0, so vC(T) = a·vC(0) + c is affine for fixed interval lengths and the periodic
+    vC(0) = c / (1 − a) follows directly. The idle system is diagonal, so its exponential is
+    e^{−t/(R_p C)} on vC and 1 elsewhere.
+    """
+    off_map = propagator(circuit.systems["off"], t_zero)
+    idle_decay = math.exp(circuit.systems["idle"][1, 1] * t_idle)
+    through = off_map @ on_map
+    vc0 = idle_decay * through[1, 2] / (1.0 - idle_decay * through[1, 1])
+    return vc0, float(through[0, 1] * vc0 + through[0, 2])
+
+
+def orbit(circuit: Circuit, duty: float) -> Orbit:
+    """Return the periodic steady state at ``duty``, in CCM or, where iL would reverse, DCM."""
+    period = circuit.period_s
+    t_on, t_off = duty * period, (1.0 - duty) * period
+    on, off = _interval(circuit, "on", t_on), _interval(circuit, "off", t_off)
+    z0 = _periodic_start(on[2], off[2])
+    if z0[0] >= 0.0:
+        return Orbit(circuit, duty, MODE_CCM, _plan_segments([on, off], z0))
+    t_zero = _zero_current_time(circuit, on[2], t_on, t_off)
+    vc0, _ = _dcm_state(circuit, on[2], t_zero, t_off - t_zero)
+    plan = [on, _interval(circuit, "off", t_zero), _interval(circuit, "idle", t_off - t_zero)]
+    return Orbit(circuit, duty, MODE_DCM, _plan_segments(plan, np.array([0.0, vc0, 1.0])))
+
+
+def _zero_current_time(circuit: Circuit, on_map: np.ndarray, t_on: float, t_off: float) -> float:
+    """Return the instant in the off interval at which iL reaches zero (DCM), in s.
+
+    Brent's method on the end-of-interval current of the periodic DCM orbit. The bracket is
+    first tried tight around a straight-line estimate, then widened to the whole off interval.
+    """
+
+    @_memoised
+    def end_current(t_zero: float) -> float:
+        return _dcm_state(circuit, on_map, t_zero, t_off - t_zero)[1]
+
+    floor = t_off * 1e-9
+    estimate = _zero_current_estimate(circuit, on_map[0, 2], t_on)
+    if estimate is not None and estimate * 1.1 < t_off:
+        low, high = max(estimate * 0.9, floor), estimate * 1.1
+        if end_current(low) > 0.0 > end_current(high):
+            return _brent_time(end_current, low, high, circuit.period_s)
+    if end_current(t_off) >= 0.0:  # at the CCM/DCM boundary to numerical precision
+        return t_off
+    return _brent_time(end_current, floor, t_off, circuit.period_s)
+
+
+def _brent_time(function, low: float, high: float, period_s: float) -> float:
+    return brentq(function, low, high, xtol=period_s * 1e-14, rtol=1e-11)
+
+
+def _zero_current_estimate(circuit: Circuit, peak_a: float, t_on: float) -> float | None:
+    """Return the straight-line estimate of the zero-current instant, i₁·L/(Vo + V_F − Vin).
+
+    Vo is taken from the ideal DCM ratio M = (1 + √(1 + 4D²/K))/2 ([EM] ch. 5), only to
+    place a tight first bracket. peak_a: iL at the end of the on interval, which starts from
+    zero and does not depend on vC.
+    """
+    stage, period = circuit.stage, circuit.period_s
+    duty = t_on / period
+    k = 2.0 * stage.inductance_h / (circuit.load_ohm * period)
+    vout = circuit.vin_v * (1.0 + math.sqrt(1.0 + 4.0 * duty**2 / k)) / 2.0
+    fall_v = vout + stage.diode_vf_v - circuit.vin_v
+    if peak_a <= 0.0 or fall_v <= 0.0:
+        return None
+    return peak_a * stage.inductance_h / fall_v
+
+
+def _memoised(function):
+    """Return ``function`` remembering its values, since Brent's method re-evaluates its bracket."""
+    seen: dict[float, float] = {}
+
+    def remembered(x: float) -> float:
+        if x not in seen:
+            seen[x] = function(x)
+        return seen[x]
+
+    return remembered
+
+
+def vout_average_v(circuit: Circuit, duty: float) -> float:
+    """Return the exact average output voltage of the steady state at ``duty``, in V."""
+    return orbit(circuit, duty).vout_average_v()
+
+
+def _first_duty_guess(circuit: Circuit, vout_v: float) -> float:
+    """Return a starting duty: the smaller of the ideal CCM and DCM duties for the ratio.
+
+    CCM: M = 1/(1 − D) ([EM] ch. 2); DCM: M = (1 + √(1 + 4D²/K))/2 with K = 2L/(R·Ts), so
+    D = √(K·M·(M − 1)) ([EM] ch. 5). The diode drop is added to the output. A start only: the
+    solver brackets the true duty from here.
+    """
+    stage = circuit.stage
+    ratio = (vout_v + stage.diode_vf_v) / circuit.vin_v
+    if ratio <= 1.0:
+        return DUTY_MIN
+    k = 2.0 * stage.inductance_h * stage.fsw_hz / circuit.load_ohm
+    guess = min(1.0 - 1.0 / ratio, math.sqrt(k * ratio * (ratio - 1.0)))
+    return min(max(guess, DUTY_MIN), 0.95)
+
+
+def regulated_orbit(circuit: Circuit, vout_v: float) -> tuple[Orbit, bool]:
+    """Return (orbit, reached) with the duty whose average output equals ``vout_v`` (V).
+
+    The duty is found with Brent's bracketed method. Where no duty in [DUTY_MIN, DUTY_MAX]
+    reaches ``vout_v`` (the losses cap the boost ratio, or Vin is already above it), the
+    orbit at the duty that comes closest is returned with ``reached`` False.
+    """
+
+    solved: dict[float, Orbit] = {}
+
+    def error(duty: float) -> float:
+        if duty not in solved:
+            solved[duty] = orbit(circuit, duty)
+        return solved[duty].vout_average_v() - vout_v
+
+    bracket = _bracket_duty(error, _first_duty_guess(circuit, vout_v))
+    if isinstance(bracket, float):
+        error(bracket)
+        return solved[bracket], False
+    duty = brentq(error, *bracket, xtol=1e-13, rtol=1e-11)
+    error(duty)
+    return solved[duty], True
+
+
+def _bracket_duty(error, guess: float) -> tuple[float, float] | float:
+    """Return a duty bracket around the root of ``error``, or the closest duty if none exists.
+
+    Steps away from ``guess`` in doubling steps. Going up, a falling ``error`` means the peak
+    of Vout(D) was passed (conduction losses cap the boost ratio); the peak is then found with
+    a bounded scalar search and is either the upper end of the bracket or the closest duty.
+    """
+    previous, at_previous = guess, error(guess)
+    direction = 1.0 if at_previous < 0.0 else -1.0
+    older, step = guess, 0.01
+    while True:
+        duty = min(max(previous + direction * step, DUTY_MIN), DUTY_MAX)
+        value = error(duty)
+        if (value >= 0.0) != (at_previous >= 0.0):
+            return (previous, duty) if previous < duty else (duty, previous)
+        if direction > 0.0 and value < at_previous:
+            return _bracket_at_peak(error, older, duty)
+        if duty in (DUTY_MIN, DUTY_MAX):
+            return duty
+        older, previous, at_previous, step = previous, duty, value, step * 2.0
+
+
+def _bracket_at_peak(error, low: float, high: float) -> tuple[float, float] | float:
+    peak = minimize_scalar(lambda d: -error(d), bounds=(low, high), method="bounded")
+    if -peak.fun >= 0.0:
+        return low, float(peak.x)
+    return float(peak.x)

@@ -1,0 +1,299 @@
+"""Steady-state figures of a boost stage at one operating point: ripple, extremes, losses.
+
+:func:`steady_state` solves the periodic orbit of :mod:`partpick.verify.orbit` (regulated to
+``vout_v`` by default, or open loop at ``duty``) and reduces it to what an engineer checks:
+the duty, the average and peak-to-peak output (the ESR step included), the inductor current
+extremes and RMS, the mode, and the power drawn and lost in each element.
+
+Conduction losses, the output power and the input power drawn by the circuit are exact
+integrals over the orbit, so Vin · avg(iL) = P_out + Σ conduction losses holds to rounding.
+The switching overlap, C_oss and diode recovery losses come from the data-sheet formulas of
+:mod:`partpick.losses` evaluated at the orbit's switching instants; they are energy the source
+supplies on top of the circuit's own draw, so they are added to the input power as well as to
+the losses and P_in = P_out + Σ losses still holds exactly.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass, field
+
+import numpy as np
+from scipy.optimize import brentq
+
+from partpick import losses
+from partpick.verify.orbit import (
+    MODE_CCM,
+    Circuit,
+    Orbit,
+    Segment,
+    boost_circuit,
+    orbit,
+    propagator,
+    regulated_orbit,
+    second_moment,
+)
+from partpick.verify.stage import Stage
+
+__all__ = [
+    "LOSS_KEYS",
+    "SteadyState",
+    "analyse_orbit",
+    "boost_circuit",
+    "sample_segment",
+    "steady_state",
+]
+
+LOSS_KEYS: tuple[str, ...] = (
+    "dcr",
+    "switch_conduction",
+    "switching",
+    "coss",
+    "diode_conduction",
+    "diode_recovery",
+    "esr",
+)
+_SAMPLES_PER_INTERVAL = 24
+_MAX_STEP_NORM = 0.25
+_TAYLOR_DEGREE = 12
+_IL_ROW = np.array([1.0, 0.0, 0.0])
+
+
+@dataclass(frozen=True, eq=False)
+class SteadyState:
+    """The steady state at one operating point, in SI units.
+
+    ``regulated`` is True when the duty was solved for the target output and reached it.
+    ``losses_w`` maps each of :data:`LOSS_KEYS` to its power, in W. ``orbit`` keeps the
+    solved intervals for waveform sampling.
+    """
+
+    vin_v: float
+    load_ohm: float
+    duty: float
+    mode: str
+    regulated: bool
+    vout_avg_v: float
+    vout_min_v: float
+    vout_max_v: float
+    il_min_a: float
+    il_max_a: float
+    il_avg_a: float
+    il_rms_a: float
+    pin_w: float
+    pout_w: float
+    losses_w: dict[str, float]
+    orbit: Orbit = field(repr=False)
+
+    @property
+    def vout_ripple_v(self) -> float:
+        """Peak-to-peak output ripple, ESR step included, in V."""
+        return self.vout_max_v - self.vout_min_v
+
+    @property
+    def iout_avg_a(self) -> float:
+        """Average load current, avg(vo)/R, in A."""
+        return self.vout_avg_v / self.load_ohm
+
+    @property
+    def efficiency(self) -> float:
+        """P_out / P_in, dimensionless."""
+        return self.pout_w / self.pin_w if self.pin_w > 0 else math.nan
+
+    @property
+    def total_loss_w(self) -> float:
+        return float(sum(self.losses_w.values()))
+
+
+def steady_state(
+    stage: Stage,
+    vin_v: float,
+    load_ohm: float,
+    *,
+    vout_v: float | None = None,
+    duty: float | None = None,
+) -> SteadyState:
+    """Return the steady state at ``vin_v`` (V) into ``load_ohm`` (Ω).
+
+    Give ``vout_v`` (V) to regulate: the duty is solved so the average output equals it.
+    Give ``duty`` (0 < D < 1) instead to run open loop. Exactly one of the two is required.
+    """
+    if (vout_v is None) == (duty is None):
+        raise ValueError("give exactly one of vout_v (regulated) or duty (open loop)")
+    circuit = boost_circuit(stage, vin_v, load_ohm)
+    if duty is not None:
+        if not 0.0 < duty < 1.0:
+            raise ValueError(f"duty must lie in (0, 1), got {duty!r}")
+        return analyse_orbit(orbit(circuit, float(duty)), regulated=False)
+    solved, reached = regulated_orbit(circuit, float(vout_v))
+    return analyse_orbit(solved, regulated=reached)
+
+
+def analyse_orbit(solved: Orbit, *, regulated: bool) -> SteadyState:
+    """Return the figures of a solved orbit (see the module docstring for the power terms)."""
+    circuit = solved.circuit
+    period = circuit.period_s
+    moments = {
+        s.name: second_moment(circuit.systems[s.name], s.duration_s, s.z_start)
+        for s in solved.segments
+    }
+    il_mean_sq = sum(m[0, 0] for m in moments.values()) / period
+    il_avg = sum(m[0, 2] for m in moments.values()) / period
+    vout_avg = sum(circuit.vout_rows[n] @ m[:, 2] for n, m in moments.items()) / period
+    pout = sum(_quadratic(circuit.vout_rows[n], m) for n, m in moments.items()) / (
+        period * circuit.load_ohm
+    )
+    conduction = _conduction_losses(circuit, moments)
+    formula = _formula_losses(solved)
+    low, high = _extremes(solved)
+    return SteadyState(
+        vin_v=circuit.vin_v,
+        load_ohm=circuit.load_ohm,
+        duty=solved.duty,
+        mode=solved.mode,
+        regulated=regulated,
+        vout_avg_v=float(vout_avg),
+        vout_min_v=float(low[1]),
+        vout_max_v=float(high[1]),
+        # in DCM the current rests at exactly zero through the idle interval
+        il_min_a=0.0 if solved.mode != MODE_CCM else float(low[0]),
+        il_max_a=float(high[0]),
+        il_avg_a=float(il_avg),
+        il_rms_a=float(math.sqrt(max(il_mean_sq, 0.0))),
+        pin_w=float(circuit.vin_v * il_avg + sum(formula.values())),
+        pout_w=float(pout),
+        losses_w={k: float({**conduction, **formula}[k]) for k in LOSS_KEYS},
+        orbit=solved,
+    )
+
+
+def _quadratic(row: np.ndarray, moment: np.ndarray) -> float:
+    return float(row @ moment @ row)
+
+
+def _conduction_losses(circuit: Circuit, moments: dict[str, np.ndarray]) -> dict[str, float]:
+    """Return the I²R and V_F·I losses, each an exact period average, in W ([EM] ch. 3)."""
+    stage, period = circuit.stage, circuit.period_s
+    on, off = moments["on"], moments["off"]
+    esr_sq = sum(_quadratic(circuit.icap_rows[n], m) for n, m in moments.items()) / period
+    return {
+        "dcr": float(
+            losses.inductor_dcr_loss_w(
+                math.sqrt(sum(m[0, 0] for m in moments.values()) / period), stage.dcr_ohm
+            )
+        ),
+        "switch_conduction": float(
+            losses.switch_conduction_loss_w(
+                math.sqrt(on[0, 0] / period), stage.rds_on_ohm, stage.hot_factor
+            )
+        ),
+        "diode_conduction": float(
+            losses.diode_conduction_loss_w(
+                stage.diode_vf_v,
+                off[0, 2] / period,
+                stage.diode_rd_ohm,
+                math.sqrt(off[0, 0] / period),
+            )
+        ),
+        # the bank's RMS current through n equal parts of ESR each
+        "esr": float(
+            losses.capacitor_esr_loss_w(math.sqrt(esr_sq), stage.esr_ohm, stage.output_count)
+        ),
+    }
+
+
+def _formula_losses(solved: Orbit) -> dict[str, float]:
+    """Return the switching, C_oss and recovery losses at the orbit's switching instants, in W.
+
+    Turn-off interrupts iL at the end of the on interval against the diode-clamped node
+    (vo + V_F + R_D·iL). In CCM turn-on takes over iL(0) from the conducting diode, which then
+    blocks vo and gives up its Q_rr; in DCM the switch turns on at zero current with the node
+    resting at Vin, and the diode has already stopped conducting, so neither overlap nor
+    recovery loss occurs at turn-on ([EM] ch. 4-5).
+    """
+    circuit, stage = solved.circuit, solved.circuit.stage
+    fsw, t_switch = stage.fsw_hz, stage.transition_time_s
+    first, off = solved.segments[0], solved.segments[1]
+    i_off = off.z_start[0]
+    v_off = circuit.vout_rows["off"] @ off.z_start + stage.diode_vf_v + stage.diode_rd_ohm * i_off
+    turn_off = losses.switch_switching_loss_w(v_off, i_off, 0.0, t_switch, fsw)
+    if solved.mode == MODE_CCM:
+        i_on = first.z_start[0]
+        v_on = (
+            circuit.vout_rows["off"] @ first.z_start + stage.diode_vf_v + stage.diode_rd_ohm * i_on
+        )
+        turn_on = losses.switch_switching_loss_w(v_on, i_on, t_switch, 0.0, fsw)
+        recovery = losses.diode_recovery_loss_w(
+            stage.qrr_c, circuit.vout_rows["on"] @ first.z_start, fsw
+        )
+    else:
+        v_on, turn_on, recovery = circuit.vin_v, 0.0, 0.0
+    return {
+        "switching": float(turn_off + turn_on),
+        "coss": float(losses.switch_coss_loss_w(stage.coss_f, v_on, fsw)),
+        "diode_recovery": float(recovery),
+    }
+
+
+def _extremes(solved: Orbit) -> tuple[np.ndarray, np.ndarray]:
+    """Return ([min iL, min vo], [max iL, max vo]) over the period.
+
+    Each interval is sampled exactly (powers of one step's e^{F h}) and every sign change of
+    the derivative between samples is refined with Brent's method, so interior peaks (vo
+    peaks inside the off interval where iC crosses zero) are found, not sampled.
+    """
+    circuit = solved.circuit
+    lows, highs = [], []
+    for segment in solved.segments:
+        rows = np.vstack([_IL_ROW, circuit.vout_rows[segment.name]])
+        low, high = _segment_extremes(circuit.systems[segment.name], segment, rows)
+        lows.append(low)
+        highs.append(high)
+    return np.min(lows, axis=0), np.max(highs, axis=0)
+
+
+def _segment_extremes(
+    system: np.ndarray, segment: Segment, rows: np.ndarray
+) -> tuple[np.ndarray, np.ndarray]:
+    """Return the (min, max) of each output row over one interval."""
+    norm = np.abs(system).sum(axis=0).max()  # ‖F‖₁, to keep each step short for the series
+    steps = max(_SAMPLES_PER_INTERVAL, math.ceil(norm * segment.duration_s / _MAX_STEP_NORM))
+    step = segment.duration_s / steps
+    states = sample_segment(system, segment.z_start, step, steps)
+    values = states @ rows.T
+    slopes = states @ (rows @ system).T
+    low, high = values.min(axis=0), values.max(axis=0)
+    for column, row in enumerate(rows):
+        turning = np.nonzero(slopes[:-1, column] * slopes[1:, column] < 0.0)[0]
+        for k in turning:
+            value = _refined_value(system, states[k], row, step)
+            low[column], high[column] = min(low[column], value), max(high[column], value)
+    return low, high
+
+
+def _refined_value(system, z_sample, row, step_s: float) -> float:
+    """Return the extreme value of row · z inside one sampling step that brackets it.
+
+    Within the step z(τ) = e^{F τ} z_k = Σ (F τ)^j z_k / j!; with ‖F h‖ ≤ 0.25 the series of
+    degree 12 is exact to rounding, so Brent's method on its derivative finds the turning point
+    without another matrix exponential.
+    """
+    coefficients = [z_sample]
+    for j in range(1, _TAYLOR_DEGREE + 1):
+        coefficients.append(system @ coefficients[-1] / j)
+    values = np.array([row @ c for c in coefficients])  # ascending powers of τ
+    slopes = values[1:] * np.arange(1, values.size)
+    t_peak = brentq(lambda t: float(np.polyval(slopes[::-1], t)), 0.0, step_s, xtol=step_s * 1e-12)
+    return float(np.polyval(values[::-1], t_peak))
+
+
+def sample_segment(
+    system: np.ndarray, z_start: np.ndarray, step_s: float, steps: int
+) -> np.ndarray:
+    """Return z at 0, h, …, steps·h (shape (steps + 1, 3)), exact by repeated e^{F h}."""
+    exp = propagator(system, step_s)
+    states = np.empty((steps + 1, z_start.size))
+    states[0] = z_start
+    for k in range(steps):
+        states[k + 1] = exp @ states[k]
+    return states
