@@ -60,6 +60,7 @@ class StrictImportError(PartpickError, ValueError):
     rejected: int
     first: str
     exit_code: int = field(default=1, init=False)
+    rejects: tuple = field(default=(), repr=False)  # the rejects, so --rejects can still be written
 
     def __str__(self) -> str:
         return (
@@ -142,3 +143,25 @@ class DatabaseError(PartpickError, RuntimeError):
 
     def __str__(self) -> str:
         return f"catalog database {self.url}: {self.reason}"
+
+
+@dataclass(eq=False)
+class ParameterError(PartpickError, ValueError):
+    """A part lacks a figure the waveform model needs, or a stage figure is impossible.
+
+    ``option`` names the command-line override the user can give instead (``"--dcr"``).
+    """
+
+    field: str
+    reason: str
+    role: str | None = None
+    part: str | None = None
+    option: str | None = None
+    value: object = None
+
+    def __str__(self) -> str:
+        who = " ".join(p for p in (self.role, self.part) if p)
+        where = f"{who}: " if who else ""
+        value = f" (got {self.value!r})" if self.value is not None else ""
+        hint = f"; give it with {self.option}" if self.option else ""
+        return f"{where}{self.field}{value} {self.reason}{hint}"

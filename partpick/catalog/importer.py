@@ -18,7 +18,7 @@ import sqlalchemy as sa
 
 from partpick.catalog import merge
 from partpick.catalog.headers import ColumnMatch, MapFile, check_map_for_kind, load_map
-from partpick.catalog.reading import PreparedFile, Reject, prepare_file, read_chunks
+from partpick.catalog.reading import WHOLE_ROW, PreparedFile, Reject, prepare_file, read_chunks
 from partpick.catalog.schema import import_batches
 from partpick.catalog.store import bump_generation, open_engine, resolve_db_url
 from partpick.errors import CatalogFormatError, NotFoundError, StrictImportError
@@ -124,13 +124,17 @@ def _import_one(
         rows += chunk.row_count
         if progress is not None:
             progress(ImportProgress(item.path, chunk.bytes_done, item.format.size_bytes, rows))
+    rows += sum(r.column == WHOLE_ROW for r in rejects)  # lines pandas skipped as malformed
     rejects.extend(_reject_duplicates(conn, item))
     rejects.sort(key=lambda r: r.line)
     rejected = len({r.line for r in rejects})
     if strict and rejects:
         first = rejects[0]
         raise StrictImportError(
-            item.path, rejected, f"line {first.line}, {first.column}: {first.reason}"
+            item.path,
+            rejected,
+            f"line {first.line}, {first.column}: {first.reason}",
+            rejects=tuple(rejects),
         )
     source = (Path(item.path).name, item.format.sha256, imported_at)
     counts = merge.merge_stage(conn, item.kind, batch_id=batch_id, source=source)

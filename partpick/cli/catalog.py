@@ -1,7 +1,109 @@
-"""Placeholder until its issue lands: registers no command yet."""
+"""Catalog commands: ``import`` CSV files, browse ``parts``, list import ``batches``."""
+
+from __future__ import annotations
+
+from enum import StrEnum
+from pathlib import Path
+from typing import Annotated
 
 import typer
 
+from partpick.catalog.importer import import_catalog
+from partpick.catalog.query import list_parts
+from partpick.catalog.store import list_batches
+from partpick.cli.common import DbOption, friendly_errors
+from partpick.errors import StrictImportError
+from partpick.render.catalog import (
+    import_progress,
+    parts_csv,
+    parts_json,
+    render_batches,
+    render_import_reports,
+    render_parts_table,
+    write_rejects_csv,
+)
+from partpick.render.console import make_console
+
+
+class PartsFormat(StrEnum):
+    table = "table"
+    csv = "csv"
+    json = "json"
+
+
+KindOption = Annotated[
+    str | None,
+    typer.Option("--kind", help="Part kind: inductor, capacitor, diode or mosfet."),
+]
+
+
+@friendly_errors
+def import_command(
+    files: Annotated[list[Path], typer.Argument(help="CSV files to import.", show_default=False)],
+    kind: KindOption = None,
+    map_file: Annotated[
+        Path | None, typer.Option("--map", help="Map file (TOML) describing the CSV layout.")
+    ] = None,
+    rejects: Annotated[
+        Path | None, typer.Option("--rejects", help="Write rejected rows to this CSV file.")
+    ] = None,
+    strict: Annotated[
+        bool, typer.Option("--strict", help="Import nothing if any row is rejected (exit 1).")
+    ] = False,
+    db: DbOption = None,
+) -> None:
+    """Import CSV catalog files; every file of one call goes in one transaction."""
+    console = make_console()
+    total = sum(p.stat().st_size for p in files if p.is_file())
+    try:
+        with import_progress(console, total) as hook:
+            reports = import_catalog(
+                db, files, kind, map_file=map_file, strict=strict, progress=hook
+            )
+    except StrictImportError as exc:
+        if rejects is not None:
+            write_rejects_csv(rejects, exc.rejects)
+        raise
+    if rejects is not None:
+        write_rejects_csv(rejects, [r for report in reports for r in report.rejects])
+    render_import_reports(console, reports)
+
+
+@friendly_errors
+def parts_command(
+    kind: Annotated[
+        str, typer.Option("--kind", help="Part kind: inductor, capacitor, diode or mosfet.")
+    ],
+    where: Annotated[
+        list[str] | None,
+        typer.Option(
+            "--where",
+            help='Condition FIELD OP VALUE, such as "isat_a>=3A" or "dielectric=x7r"; repeatable.',
+        ),
+    ] = None,
+    output: Annotated[
+        PartsFormat, typer.Option("--format", help="table, csv or json (SI values).")
+    ] = PartsFormat.table,
+    db: DbOption = None,
+) -> None:
+    """List catalog parts of one kind, optionally filtered."""
+    parts = list_parts(db, kind, where or ())
+    if output is PartsFormat.json:
+        typer.echo(parts_json(parts))
+    elif output is PartsFormat.csv:
+        typer.echo(parts_csv(kind, parts), nl=False)
+    else:
+        render_parts_table(make_console(), kind, parts)
+
+
+@friendly_errors
+def batches_command(db: DbOption = None) -> None:
+    """List the import batches: file, hash, time and counts."""
+    render_batches(make_console(), list_batches(db))
+
 
 def register(app: typer.Typer) -> None:
-    """Add this module's commands to app."""
+    """Add the catalog commands to ``app``."""
+    app.command("import")(import_command)
+    app.command("parts")(parts_command)
+    app.command("batches")(batches_command)
