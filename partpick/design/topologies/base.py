@@ -130,3 +130,6 @@ class Topology(Protocol):
 
     def stresses_at(self, spec: Spec, inductance_h: np.ndarray) -> PartStress:
         """Return the stresses at each inductance, maximised over the input range."""
+
+    def ccm_at(self, spec: Spec, inductance_h: float) -> bool:
+        """Return True where full load stays in CCM over the whole input range at this L."""

@@ -85,3 +85,16 @@ class BoostTopology:
             icout_rms_a=worst["icout_rms"][0],
             icin_rms_a=worst["icin_rms"][0],
         )
+
+    def ccm_at(self, spec: Spec, inductance_h: float) -> bool:
+        """Return True where full load stays in CCM over the whole input range at this inductance.
+
+        CCM holds while K = 2L/(R·Ts) > K_crit(D) = D·(1 − D)² at every input voltage of the
+        grid, with the efficiency-corrected load R = Vout/(η·Iout). Reference: Erickson & Maksimovic,
+        Fundamentals of Power Electronics, 3rd ed., ch. 5.
+        """
+        grid = operating_grid(spec)
+        load_ohm = effective_load_resistance_ohm(spec.vout_v, spec.iout_a, spec.efficiency)
+        k_factor = ccm_k_factor(inductance_h, load_ohm, spec.fsw_hz)
+        return bool(np.all(k_factor > ccm_k_critical(grid.duty)))
+
