@@ -90,8 +90,8 @@ class BoostTopology:
         """Return True where full load stays in CCM over the whole input range at this inductance.
 
         CCM holds while K = 2L/(R·Ts) > K_crit(D) = D·(1 − D)² at every input voltage of the
-        grid, with the efficiency-corrected load R = Vout/(η·Iout). Reference: Erickson & Maksimovic,
-        Fundamentals of Power Electronics, 3rd ed., ch. 5.
+        grid, with the efficiency-corrected load R = Vout/(η·Iout). Reference: Erickson &
+        Maksimovic, Fundamentals of Power Electronics, 3rd ed., ch. 5.
         """
         grid = operating_grid(spec)
         load_ohm = effective_load_resistance_ohm(spec.vout_v, spec.iout_a, spec.efficiency)
