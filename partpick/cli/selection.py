@@ -1,7 +1,133 @@
-"""Placeholder until its issue lands: registers no command yet."""
+"""``partpick pick``: check every catalog part for one role and rank the ones that pass.
+
+The screening core and the renderer are imported inside the command, so starting the CLI
+costs neither; the pick path itself needs only numpy (no pandas, no SQLAlchemy) on an SQLite
+catalog.
+"""
+
+from __future__ import annotations
+
+import json
+from enum import StrEnum
+from typing import Annotated
 
 import typer
 
+from partpick.cli.common import DbOption, friendly_errors
+from partpick.cli.spec_options import with_spec_options
+from partpick.design.spec import Spec
+
+ROLE_NAMES = ("inductor", "input-cap", "output-cap", "diode", "switch")
+TABLE_TOP_DEFAULT = 10
+"""Parts per list in the table view when --top is not given (JSON lists every part)."""
+
+
+class PickFormat(StrEnum):
+    """Output forms of ``partpick pick``."""
+
+    table = "table"
+    json = "json"
+
+
+class Rank(StrEnum):
+    """What the passes are ranked by (ties by cost, then mpn)."""
+
+    loss = "loss"
+    cost = "cost"
+    size = "size"
+
+
+RoleOption = Annotated[
+    str,
+    typer.Option("--role", help=f"Role to fill: {', '.join(ROLE_NAMES)}.", show_default=False),
+]
+ProfileOption = Annotated[
+    str,
+    typer.Option(
+        "--profile", help="Derating profile: standard, high-rel, or a TOML file extending one."
+    ),
+]
+RankOption = Annotated[Rank, typer.Option("--rank", help="Rank passes by loss, cost or size.")]
+TopOption = Annotated[
+    int | None,
+    typer.Option(
+        "--top",
+        min=1,
+        help=f"Parts per list (default: {TABLE_TOP_DEFAULT} in the table, all in JSON).",
+        show_default=False,
+    ),
+]
+MaxParallelOption = Annotated[
+    int | None,
+    typer.Option(
+        "--max-parallel",
+        min=1,
+        help="Most identical capacitors in parallel (default: the profile's max_parallel).",
+        show_default=False,
+    ),
+]
+FormatOption = Annotated[
+    PickFormat,
+    typer.Option("--format", help="table for people, json (one object, SI units) for scripts."),
+]
+ExplainOption = Annotated[
+    str | None,
+    typer.Option("--explain", help="Show every check of this one part (by mpn).", metavar="MPN"),
+]
+
 
 def register(app: typer.Typer) -> None:
-    """Add this module's commands to app."""
+    """Add the ``pick`` command to ``app``."""
+    app.command("pick")(pick_command)
+
+
+@friendly_errors
+@with_spec_options
+def pick_command(
+    spec: Spec,
+    role: RoleOption,
+    profile: ProfileOption = "standard",
+    rank: RankOption = Rank.loss,
+    top: TopOption = None,
+    max_parallel: MaxParallelOption = None,
+    output_format: FormatOption = PickFormat.table,
+    explain_mpn: ExplainOption = None,
+    db: DbOption = None,
+) -> None:
+    """Check every catalog part for one role against the design's stresses and rank the passes.
+
+    Example: partpick pick logger.toml --role inductor --rank cost --top 5
+    """
+    from partpick.render.console import make_console
+    from partpick.screening.pick import explain, pick, role_rules
+    from partpick.screening.profiles import load_profile
+
+    role_rules(role)  # an unknown role is bad input before any work is done
+    policy = load_profile(profile)
+    parallel = max_parallel if max_parallel is not None else policy.max_parallel
+    if explain_mpn is not None:
+        found = explain(db, spec, role, explain_mpn, profile=policy, max_parallel=parallel)
+        _show_explanation(found, output_format, make_console)
+        return
+    if output_format is PickFormat.json:
+        result = pick(
+            db, spec, role, profile=policy, rank=rank.value, max_parallel=parallel, top=top
+        )
+        from partpick.render.pick import pick_json
+
+        typer.echo(json.dumps(pick_json(result), indent=2, ensure_ascii=False))
+        return
+    shown = top if top is not None else TABLE_TOP_DEFAULT
+    result = pick(db, spec, role, profile=policy, rank=rank.value, max_parallel=parallel, top=shown)
+    from partpick.render.pick import render_pick
+
+    render_pick(result, make_console(), near_misses=shown)
+
+
+def _show_explanation(found, output_format: PickFormat, make_console) -> None:
+    from partpick.render.pick import explain_json, render_explain
+
+    if output_format is PickFormat.json:
+        typer.echo(json.dumps(explain_json(found), indent=2, ensure_ascii=False))
+    else:
+        render_explain(found, make_console())

@@ -335,3 +335,40 @@ def operating_point(spec, envelope, keys: tuple[str, ...]):
         if fig is not None:
             rows.append((key, fig.label, fig.value, fig.unit, fig.worst_vin_v))
     return tuple(rows)
+
+
+def check_load(check: Check) -> float | None:
+    """Return how much of what the rule allows a check uses (1.0 at the limit, above fails).
+
+    stress/limit for a use or limit rule; the share of the allowed temperature rise for
+    ``thermal``; for the two-sided ``inductance`` window, how close L is to the bound it is
+    nearest to (or breaks). None for yes/no rules, the optional ``temperature`` rule and
+    unmade checks.
+    """
+    if check.rule == "thermal":
+        return check.utilisation
+    if check.rule == "temperature":  # an absolute temperature has no natural ratio
+        return None
+    if check.stress is None or check.limit is None or check.limit == 0:
+        return None
+    if check.rule == "inductance":
+        low, high = sorted((check.stress, check.limit))
+        if low <= 0:
+            return None
+        inside = check.status == "pass"
+        return low / high if inside else high / low
+    return check.stress / check.limit
+
+
+def tightest_check(checks: tuple[Check, ...]) -> Check | None:
+    """Return the made check with the highest load (the smallest margin), if any.
+
+    The inductance window is left out: being near a bound of the design's ripple band is a
+    fit, not a stress margin.
+    """
+    loaded = [
+        (load, c) for c in checks if c.rule != "inductance" and (load := check_load(c)) is not None
+    ]
+    if not loaded:
+        return None
+    return max(loaded, key=lambda pair: pair[0])[1]

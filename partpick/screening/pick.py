@@ -173,7 +173,7 @@ def explain(
     hits = np.flatnonzero(screen.columns["mpn"] == mpn)
     if hits.size == 0:
         kind = screen.kind
-        raise NotFoundError(f"{kind} part", mpn, "Check the mpn and --role (see 'partpick parts').")
+        raise NotFoundError(f"{kind} part", mpn, "Check the mpn and the --role.")
     i = int(hits[0])
     status = int(classify(screen)[i])
     return Explanation(

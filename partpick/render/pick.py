@@ -1,0 +1,442 @@
+"""Views of a pick: the terminal report, the JSON object, and one part's explanation.
+
+Every sentence about a check is made here from the Check's numbers (the core keeps failures
+as data): :func:`check_sentence` gives e.g. "saturation: needs Isat ≥ 3.35 A (2.68 A peak at
+10.8 V in, 80 % use); part has 3.22 A".
+"""
+
+from __future__ import annotations
+
+import math
+
+from rich.console import Console
+from rich.table import Table
+from rich.text import Text
+
+from partpick.render.console import (
+    STYLE_FAIL,
+    STYLE_HEADING,
+    STYLE_MUTED,
+    STYLE_PASS,
+    STYLE_UNVERIFIED,
+)
+from partpick.screening.checks import Check, Outcome, check_load, tightest_check
+from partpick.units import format_eng
+
+# rule -> (name of the rating, what the stress is) for "needs X ≥ …" sentences
+RATING_WORDS: dict[str, tuple[str, str]] = {
+    "saturation": ("Isat", "peak"),
+    "rms": ("Irms", "RMS"),
+    "voltage": ("rated voltage", "working"),
+    "ripple-current": ("ripple rating", "RMS per part"),
+    "reverse-voltage": ("VRRM", "reverse"),
+    "forward-current": ("IF(AV)", "average"),
+    "drain-voltage": ("VDS", "off-state"),
+    "drain-current": ("ID", "peak"),
+}
+# the profile sections each role's rules read
+ROLE_SECTIONS: dict[str, tuple[str, ...]] = {
+    "inductor": ("inductor",),
+    "input-cap": ("capacitor", "max_parallel"),
+    "output-cap": ("capacitor", "max_parallel"),
+    "diode": ("diode",),
+    "switch": ("switch",),
+}
+STATUS_STYLES = {"pass": STYLE_PASS, "fail": STYLE_FAIL, "unverified": STYLE_UNVERIFIED}
+
+
+def _q(value: float | None, unit: str) -> str:
+    return format_eng(value, unit)
+
+
+def _at(check: Check) -> str:
+    return f" at {_q(check.worst_vin_v, 'V')} in" if check.worst_vin_v is not None else ""
+
+
+def check_sentence(check: Check, count: int = 1) -> str:
+    """Return one sentence saying what ``check`` found, from its numbers alone."""
+    if check.status == "unverified":
+        return f"{check.rule}: not checked, missing {', '.join(check.missing) or 'data'}"
+    writer = _WRITERS.get(check.rule)
+    if writer is not None:
+        return writer(check, count)
+    if check.rule in RATING_WORDS:
+        return _use_sentence(check)
+    return _limit_sentence(check)
+
+
+def _use_sentence(check: Check) -> str:
+    label, what = RATING_WORDS[check.rule]
+    unit, use = check.unit, check.derating or 1.0
+    if check.status == "fail":
+        needed = check.stress / use if check.stress is not None else None
+        return (
+            f"{check.rule}: needs {label} ≥ {_q(needed, unit)} ({_q(check.stress, unit)} "
+            f"{what}{_at(check)}, {use:.0%} use); part has {_q(check.rating, unit)}"
+        )
+    used = check.utilisation if check.utilisation is not None else math.nan
+    return (
+        f"{check.rule}: {label} {_q(check.rating, unit)} vs {_q(check.stress, unit)} {what}"
+        f"{_at(check)}: {used:.0%} use, limit {use:.0%}"
+    )
+
+
+def _limit_sentence(check: Check) -> str:
+    word = "exceeds" if check.status == "fail" else "within"
+    return (
+        f"{check.rule}: {_q(check.stress, check.unit)}{_at(check)} {word} the "
+        f"{_q(check.limit, check.unit)} limit"
+    )
+
+
+def _inductance(check: Check, count: int) -> str:
+    value, bound = _q(check.stress, "H"), _q(check.limit, "H")
+    if check.status == "pass":
+        return f"inductance: {value} is inside the design window (nearest bound {bound})"
+    side = "minimum" if (check.stress or 0) < (check.limit or 0) else "maximum"
+    return f"inductance: {value} is outside the design window ({side} {bound})"
+
+
+def _ripple_voltage(check: Check, count: int) -> str:
+    parts = f"{count} part{'s' if count > 1 else ''} in parallel"
+    verdict = "exceeds" if check.status == "fail" else "within"
+    return (
+        f"ripple-voltage: {_q(check.stress, 'V')} peak-to-peak with {parts}{_at(check)}, "
+        f"{verdict} the {_q(check.limit, 'V')} allowed"
+    )
+
+
+def _thermal(check: Check, count: int) -> str:
+    rise = f"{check.utilisation:.0%} of the allowed rise" if check.utilisation is not None else ""
+    verdict = "above" if check.status == "fail" else "within"
+    return (
+        f"thermal: estimated Tj {_q(check.stress, 'degC')}{_at(check)}, {verdict} the "
+        f"{_q(check.limit, 'degC')} limit (Tjmax {_q(check.rating, 'degC')}; {rise})"
+    )
+
+
+def _srf(check: Check, count: int) -> str:
+    if check.status == "fail":
+        return f"srf: needs SRF ≥ {_q(check.stress, 'Hz')}; part has {_q(check.limit, 'Hz')}"
+    return f"srf: SRF {_q(check.limit, 'Hz')} ≥ {_q(check.stress, 'Hz')} needed"
+
+
+def _temperature(check: Check, count: int) -> str:
+    if check.status == "fail":
+        return (
+            f"temperature: rated to {_q(check.limit, 'degC')}, needs "
+            f"{_q(check.stress, 'degC')} (ambient plus margin)"
+        )
+    return f"temperature: rated to {_q(check.limit, 'degC')} ≥ {_q(check.stress, 'degC')} needed"
+
+
+def _recovery(check: Check, count: int) -> str:
+    if check.status == "fail":
+        return (
+            f"recovery: a standard-recovery rectifier is limited to {_q(check.limit, 'Hz')}; "
+            f"the design switches at {_q(check.stress, 'Hz')}"
+        )
+    return f"recovery: {_q(check.stress, 'Hz')} is within {_q(check.limit, 'Hz')}"
+
+
+def _channel(check: Check, count: int) -> str:
+    if check.status == "fail":
+        return "channel: a p-channel part cannot be the low-side switch of a boost"
+    return "channel: n-channel"
+
+
+def _lifecycle(check: Check, count: int) -> str:
+    return "lifecycle: obsolete" if check.status == "fail" else "lifecycle: not obsolete"
+
+
+_WRITERS = {
+    "inductance": _inductance,
+    "ripple-voltage": _ripple_voltage,
+    "thermal": _thermal,
+    "srf": _srf,
+    "temperature": _temperature,
+    "recovery": _recovery,
+    "channel": _channel,
+    "lifecycle": _lifecycle,
+}
+
+
+def margin_text(outcome: Outcome) -> str:
+    """Return the tightest check of a part and how much of its limit it uses."""
+    tight = tightest_check(outcome.checks)
+    if tight is None:
+        return "—"
+    return f"{tight.rule} {check_load(tight):.0%} of limit"
+
+
+# --- JSON ------------------------------------------------------------------------------------
+
+
+def _json_number(value: float | None) -> float | None:
+    if value is None:
+        return None
+    value = float(value)
+    return value if math.isfinite(value) else None
+
+
+def _check_json(check: Check) -> dict[str, object]:
+    return {
+        "rule": check.rule,
+        "stress": _json_number(check.stress),
+        "limit": _json_number(check.limit),
+        "utilisation": _json_number(check.utilisation),
+        "worst_vin_v": _json_number(check.worst_vin_v),
+    }
+
+
+def outcome_json(outcome: Outcome) -> dict[str, object]:
+    """Return a passed or unverified entry (unverified ones also carry ``missing``)."""
+    entry: dict[str, object] = {
+        "mpn": outcome.mpn,
+        "manufacturer": outcome.manufacturer,
+        "count": outcome.count,
+        "loss_w": _json_number(outcome.loss_w),
+        "unit_price": _json_number(outcome.unit_price),
+        "checks": [_check_json(c) for c in outcome.checks],
+        "notes": list(outcome.notes),
+    }
+    if outcome.status == "unverified":
+        entry["missing"] = list(outcome.missing)
+    return entry
+
+
+def failed_json(outcome: Outcome) -> dict[str, object]:
+    """Return a failed entry: every failing check as a reason with its sentence."""
+    return {
+        "mpn": outcome.mpn,
+        "manufacturer": outcome.manufacturer,
+        "reasons": [
+            {
+                "rule": c.rule,
+                "message": check_sentence(c, outcome.count),
+                "stress": _json_number(c.stress),
+                "limit": _json_number(c.limit),
+            }
+            for c in outcome.failing
+        ],
+    }
+
+
+def profile_json(profile) -> dict[str, object]:
+    """Return the profile's name, origin and every figure (inf as null)."""
+    return {
+        "name": profile.name,
+        "description": profile.description,
+        "file": profile.file,
+        "extends": profile.extends,
+        "figures": {k: _json_number(v) for k, v in sorted(profile.figures.items())},
+    }
+
+
+def pick_json(result) -> dict[str, object]:
+    """Return the ``partpick pick --format json`` object."""
+    return {
+        "role": result.role,
+        "profile": profile_json(result.profile),
+        "stress": result.envelope.to_dict(),
+        "operating_point": _operating_point_json(result.operating_point),
+        "rank": result.rank,
+        "max_parallel": result.max_parallel,
+        "total": result.total,
+        "counts": dict(result.counts),
+        "fail_counts": dict(result.fail_counts),
+        "passed": [outcome_json(o) for o in result.passed],
+        "unverified": [outcome_json(o) for o in result.unverified],
+        "failed": [failed_json(o) for o in result.failed],
+    }
+
+
+def explain_json(explanation) -> dict[str, object]:
+    """Return one part's outcome with every check in full."""
+    o = explanation.outcome
+    return {
+        "role": explanation.role,
+        "profile": explanation.profile.name,
+        "mpn": o.mpn,
+        "manufacturer": o.manufacturer,
+        "status": o.status,
+        "count": o.count,
+        "loss_w": _json_number(o.loss_w),
+        "unit_price": _json_number(o.unit_price),
+        "cost": _json_number(o.cost),
+        "missing": list(o.missing),
+        "notes": list(o.notes),
+        "checks": [
+            {
+                **_check_json(c),
+                "rating": _json_number(c.rating),
+                "derating": _json_number(c.derating),
+                "unit": c.unit,
+                "status": c.status,
+                "missing": list(c.missing),
+                "message": check_sentence(c, o.count),
+            }
+            for c in o.checks
+        ],
+        "operating_point": _operating_point_json(explanation.operating_point),
+    }
+
+
+def _operating_point_json(rows) -> dict[str, object]:
+    return {
+        key: {"value": _json_number(value), "unit": unit, "worst_vin_v": _json_number(vin)}
+        for key, _label, value, unit, vin in rows
+    }
+
+
+# --- terminal --------------------------------------------------------------------------------
+
+
+def render_pick(result, console: Console, near_misses: int = 5) -> None:
+    """Print the pick report: operating point, policy, passes, unverified, failures."""
+    kind_name = result.kind or result.role
+    console.print(
+        Text(
+            f"{result.role}: {result.total} {kind_name} part(s) checked; profile "
+            f"{result.profile.name}, ranked by {result.rank}",
+            style=STYLE_HEADING,
+        )
+    )
+    console.print(operating_point_table(result.operating_point))
+    console.print(profile_table(result.profile, result.role))
+    counts = result.counts
+    console.print(
+        Text(
+            f"{counts.get('passed', 0)} passed, {counts.get('unverified', 0)} unverified, "
+            f"{counts.get('failed', 0)} failed"
+        )
+    )
+    if result.passed:
+        console.print(passed_table(result.passed, "Passed (best first)"))
+    if result.unverified:
+        console.print(unverified_table(result.unverified))
+    if result.failed:
+        console.print(failure_summary(result.fail_counts))
+        console.print(near_miss_table(result.failed[:near_misses]))
+    if not result.total:
+        console.print(Text(f"The catalog has no {kind_name} parts; import some first."))
+
+
+def operating_point_table(rows) -> Table:
+    table = Table(title="Operating point used", title_justify="left", header_style=STYLE_HEADING)
+    for column in ("figure", "value", "worst at"):
+        table.add_column(column)
+    for _key, label, value, unit, vin in rows:
+        table.add_row(label, _q(value, unit), _q(vin, "V") if vin is not None else "")
+    return table
+
+
+def profile_table(profile, role: str) -> Table:
+    """Return the profile figures the role's rules read, so the policy is visible."""
+    table = Table(
+        title=f"Derating policy: {profile.name}", title_justify="left", header_style=STYLE_HEADING
+    )
+    table.add_column("figure")
+    table.add_column("value")
+    for key, value in sorted(profile.figures.items()):
+        if key.split(".")[0] in ROLE_SECTIONS.get(role, ()):
+            unit = profile.unit_of(key)
+            shown = "none" if math.isinf(value) else _figure_text(value, unit)
+            table.add_row(key, shown)
+    return table
+
+
+def _figure_text(value: float, unit: str) -> str:
+    if unit == "fraction":
+        return f"{value:.0%}"
+    if unit == "count":
+        return f"{value:g}"
+    return _q(value, unit)
+
+
+def passed_table(outcomes: list[Outcome], title: str) -> Table:
+    table = Table(title=title, title_justify="left", header_style=STYLE_HEADING)
+    for column in ("#", "mpn", "manufacturer", "n", "loss", "cost", "tightest", "notes"):
+        table.add_column(column)
+    for i, o in enumerate(outcomes, 1):
+        table.add_row(
+            str(i),
+            Text(o.mpn, style=STYLE_PASS),
+            o.manufacturer,
+            str(o.count),
+            _q(o.loss_w, "W"),
+            f"{o.cost:.2f}" if o.cost is not None else "—",
+            margin_text(o),
+            Text("; ".join(o.notes), style=STYLE_MUTED),
+        )
+    return table
+
+
+def unverified_table(outcomes: list[Outcome]) -> Table:
+    table = Table(
+        title="Unverified (nothing fails, a figure is missing)",
+        title_justify="left",
+        header_style=STYLE_HEADING,
+    )
+    for column in ("mpn", "manufacturer", "n", "missing", "loss"):
+        table.add_column(column)
+    for o in outcomes:
+        table.add_row(
+            Text(o.mpn, style=STYLE_UNVERIFIED),
+            o.manufacturer,
+            str(o.count),
+            ", ".join(o.missing),
+            _q(o.loss_w, "W"),
+        )
+    return table
+
+
+def failure_summary(fail_counts: dict[str, int]) -> Table:
+    table = Table(title="Failures by rule", title_justify="left", header_style=STYLE_HEADING)
+    table.add_column("rule")
+    table.add_column("parts failing", justify="right")
+    for rule, count in sorted(fail_counts.items(), key=lambda kv: (-kv[1], kv[0])):
+        if count:
+            table.add_row(rule, str(count))
+    return table
+
+
+def near_miss_table(outcomes: list[Outcome]) -> Table:
+    table = Table(
+        title="Near misses (closest to passing)", title_justify="left", header_style=STYLE_HEADING
+    )
+    table.add_column("mpn")
+    table.add_column("manufacturer")
+    table.add_column("why it fails")
+    for o in outcomes:
+        reasons = "\n".join(check_sentence(c, o.count) for c in o.failing)
+        table.add_row(Text(o.mpn, style=STYLE_FAIL), o.manufacturer, reasons)
+    return table
+
+
+def render_explain(explanation, console: Console) -> None:
+    """Print every check of one part, with its sentence."""
+    o = explanation.outcome
+    style = {"passed": STYLE_PASS, "failed": STYLE_FAIL}.get(o.status, STYLE_UNVERIFIED)
+    console.print(
+        Text(
+            f"{o.mpn} ({o.manufacturer}) as {explanation.role}: {o.status}, "
+            f"{o.count} in parallel; profile {explanation.profile.name}",
+            style=style,
+        )
+    )
+    table = Table(header_style=STYLE_HEADING)
+    for column in ("rule", "status", "finding"):
+        table.add_column(column)
+    for c in o.checks:
+        table.add_row(
+            c.rule, Text(c.status, style=STATUS_STYLES[c.status]), check_sentence(c, o.count)
+        )
+    console.print(table)
+    extra = [f"loss {_q(o.loss_w, 'W')}", f"cost {o.cost:.2f}" if o.cost is not None else ""]
+    console.print(Text(", ".join(x for x in extra if x), style=STYLE_MUTED))
+    for note in o.notes:
+        console.print(Text(f"note: {note}", style=STYLE_MUTED))
+    if o.missing:
+        console.print(Text(f"missing: {', '.join(o.missing)}", style=STYLE_UNVERIFIED))
+    console.print(operating_point_table(explanation.operating_point))
