@@ -115,6 +115,7 @@ class Spec:
             if getattr(self, attribute) is not None:
                 self._require_positive(key, getattr(self, attribute))
         self._check_relations()
+        object.__setattr__(self, "topology", self.topology.strip().lower())
         # Imported here because topologies import this module.
         from partpick.design.topologies import get_topology
 
@@ -241,6 +242,8 @@ def _parse_number(key: str, value: object, unit: str, source: str | None) -> flo
         raise SpecError(
             key=key, reason="must be a number or a text with a unit", value=value, file=source
         )
+    if isinstance(value, (int, float)) and not math.isfinite(value):
+        raise SpecError(key=key, reason="must be a finite number", value=value, file=source)
     if isinstance(value, str) and _BARE_NUMBER_RE.match(value):
         return float(value)
     try:
