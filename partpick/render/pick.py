@@ -56,6 +56,8 @@ def _at(check: Check) -> str:
 def check_sentence(check: Check, count: int = 1) -> str:
     """Return one sentence saying what ``check`` found, from its numbers alone."""
     if check.status == "unverified":
+        if check.rule == "data":
+            return f"data: core figure(s) missing: {', '.join(check.missing)}"
         return f"{check.rule}: not checked, missing {', '.join(check.missing) or 'data'}"
     writer = _WRITERS.get(check.rule)
     if writer is not None:

@@ -288,6 +288,22 @@ def flag_rule(rule: str, failing: np.ndarray, applies: np.ndarray | None = None)
     return RuleResult(rule, "", nan, nan, nan, nan, nan, nan, load, status)
 
 
+def core_data_rule(columns: dict[str, np.ndarray], names: tuple[str, ...]) -> RuleResult:
+    """Return the ``data`` rule: a part lacking a core field of its kind is unverified.
+
+    Used for core fields no other rule of the role reads (an input capacitor's ESR when the
+    spec sets no input ripple still decides its loss); complete parts skip it.
+    """
+    n = columns["mpn"].shape[0]
+    missing = missing_masks(columns, names)
+    lacking = np.zeros(n, dtype=bool)
+    for _name, mask in missing:
+        lacking |= mask
+    status = np.where(lacking, UNVERIFIED, SKIPPED).astype(np.int8)
+    nan = np.full(n, np.nan)
+    return RuleResult("data", "", nan, nan, nan, nan, nan, nan, nan, status, missing)
+
+
 def lifecycle_rule(lifecycle: np.ndarray) -> RuleResult:
     """Return the lifecycle rule: an ``obsolete`` part fails (any other state passes)."""
     return flag_rule("lifecycle", np.asarray(lifecycle == "obsolete", dtype=bool))

@@ -8,14 +8,14 @@ hundreds of thousands of parts is screened without a Python object per part.
 from __future__ import annotations
 
 from collections.abc import Callable
-from dataclasses import dataclass, field
+from dataclasses import dataclass, field, replace
 
 import numpy as np
 
 from partpick.errors import NotFoundError, ProfileError
 from partpick.fields import fields_of
 from partpick.screening import capacitor, diode, inductor, switch
-from partpick.screening.checks import FAIL, UNVERIFIED, Check, Outcome, Screen
+from partpick.screening.checks import FAIL, UNVERIFIED, Check, Outcome, Screen, core_data_rule
 from partpick.screening.profiles import Profile
 
 ROLES: tuple[str, ...] = ("inductor", "input-cap", "output-cap", "diode", "switch")
@@ -31,15 +31,20 @@ class RoleRules:
 
     kind: str
     fields: tuple[str, ...]
+    core: tuple[str, ...]
     screen: Callable[..., Screen]
 
 
 ROLE_RULES: dict[str, RoleRules] = {
-    "inductor": RoleRules(inductor.KIND, inductor.FIELDS, inductor.screen),
-    "input-cap": RoleRules(capacitor.KIND, capacitor.FIELDS, capacitor.screen_input),
-    "output-cap": RoleRules(capacitor.KIND, capacitor.FIELDS, capacitor.screen_output),
-    "diode": RoleRules(diode.KIND, diode.FIELDS, diode.screen),
-    "switch": RoleRules(switch.KIND, switch.FIELDS, switch.screen),
+    "inductor": RoleRules(inductor.KIND, inductor.FIELDS, inductor.CORE, inductor.screen),
+    "input-cap": RoleRules(
+        capacitor.KIND, capacitor.FIELDS, capacitor.CORE, capacitor.screen_input
+    ),
+    "output-cap": RoleRules(
+        capacitor.KIND, capacitor.FIELDS, capacitor.CORE, capacitor.screen_output
+    ),
+    "diode": RoleRules(diode.KIND, diode.FIELDS, diode.CORE, diode.screen),
+    "switch": RoleRules(switch.KIND, switch.FIELDS, switch.CORE, switch.screen),
 }
 
 
@@ -87,7 +92,17 @@ def screen_role(
     envelope = topology.envelope(spec)
     columns = read_role_columns(db, rules)
     screen = rules.screen(columns, spec, envelope, topology, profile, max_parallel)
-    return screen, envelope
+    return with_core_data(screen, rules.core), envelope
+
+
+def with_core_data(screen: Screen, core: tuple[str, ...]) -> Screen:
+    """Return ``screen`` plus the ``data`` rule for core fields that no rule of it reads."""
+    read = {name for rule in screen.rules for name, _mask in rule.missing}
+    unread = tuple(name for name in core if name not in read)
+    if not unread:
+        return screen
+    rules = screen.rules + (core_data_rule(screen.columns, unread),)
+    return replace(screen, rules=rules)
 
 
 def read_role_columns(db: str | None, rules: RoleRules) -> dict[str, np.ndarray]:
