@@ -208,7 +208,11 @@ def _lines_table(bom: Bom) -> Table:
         "ext.",
         "status",
     ):
-        table.add_column(name, justify="right" if name in ("qty", "unit", "ext.") else "left")
+        table.add_column(
+            name,
+            justify="right" if name in ("qty", "unit", "ext.") else "left",
+            no_wrap=name in ("ref", "mpn", "status", "qty"),
+        )
     for line in bom.lines:
         status = Text(STATUS_WORDS[line.status], style=STATUS_STYLES[line.status])
         table.add_row(*_line_header(line), status)

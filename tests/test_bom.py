@@ -1,0 +1,293 @@
+"""The bill of materials over a small invented catalog, worked out by hand.
+
+Catalog: tests/data/bom/*.csv (invented parts). Spec: tests/data/bom/spec.toml,
+6.0–8.4 V in, 24 V at 0.8 A, 400 kHz, η estimate 0.85, 120 mV output ripple, 60 °C.
+
+Hand working (TI SLVA372 forms, as in issue 3):
+  D(6 V) = 1 − 6·0.85/24 = 0.7875, IL(6 V) = 0.8/0.2125 = 3.765 A
+  Vin* = 24/(2·0.85) = 14.1 V, clamped to 8.4 V: D = 0.7025, Vin·D = 5.901 V
+  l_min = 5.901/(400e3·0.4·3.765) = 9.80 µH, l_max = 19.6 µH
+Inductors (standard profile, tolerance 20 %):
+  BT-L150A 15 µH: min 12 µH, peak 3.765 + 0.984/2 = 4.26 A ≤ 0.8·9 A       → passes
+  BT-L120B 12 µH: min 9.6 µH, peak 3.765 + 1.230/2 = 4.38 A ≤ 0.8·8 A      → passes
+  BT-L220C 22 µH: above l_max                                             → fails (window)
+  BT-L100D 10 µH: min 8 µH, peak 3.765 + 1.477/2 = 4.50 A > 0.8·4 = 3.2 A  → fails (saturation)
+  loss I²·DCR: 3.78²·0.015 = 0.21 W (L120B) < 3.78²·0.020 = 0.29 W (L150A) → L120B first
+Output capacitor BT-C106A50 (10 µF x7r 50 V, 5 mΩ): C_eff = 10·0.8·0.6 = 4.8 µF,
+  24.06 V ≤ 0.5·50 V; ripple with n parts: 0.8·0.7875/(400e3·n·4.8e-6) + 0.005/n·4.37 A
+  n = 2: 0.175 V > 0.12 V; n = 3: 0.117 V ≤ 0.12 V                        → 3 in parallel
+  BT-C106B25 (25 V) fails the output voltage (24.06 V > 12.5 V) but passes at the input
+  (8.4 V ≤ 12.5 V) with the lower ESR (I²·3 mΩ < I²·5 mΩ)                 → CIN, 1 part
+Diodes: BT-D340: 24.06 V ≤ 0.8·40 V, 0.8 A ≤ 0.7·3 A, Tj = 60 + 0.5·0.8·60 = 84 °C ≤ 125 °C
+  → passes; BT-D320: 24.06 V > 0.8·20 V → fails.
+Switches: BT-N4020 passes; BT-P4020 is p-channel → fails.
+Cost: 1.20 + 0.10 + 3·0.20 + 0.15 + 0.30 = 2.35.
+"""
+
+from __future__ import annotations
+
+import csv
+import io
+import json
+from pathlib import Path
+
+import pytest
+from typer.testing import CliRunner
+
+from partpick.bom import BomLine, build_bom, estimate_losses
+from partpick.catalog.importer import import_catalog
+from partpick.cli import app
+from partpick.design.spec import load_spec
+from partpick.losses import efficiency_from_losses
+from partpick.render.bom import bom_csv, bom_document, bom_markdown
+from partpick.screening.checks import Outcome
+from partpick.screening.pick import pick
+from partpick.screening.profiles import load_profile
+
+DATA = Path(__file__).parent / "data" / "bom"
+SPEC = DATA / "spec.toml"
+KIND_FILES = {
+    "inductor": "inductors.csv",
+    "capacitor": "capacitors.csv",
+    "diode": "diodes.csv",
+    "mosfet": "mosfets.csv",
+}
+
+
+def _catalog(tmp_path: Path, **replace: str) -> str:
+    """Import the test catalog into a fresh database; ``replace`` swaps a kind's file."""
+    db = str(tmp_path / "bom.db")
+    for kind, name in {**KIND_FILES, **replace}.items():
+        import_catalog(db, [DATA / name], kind=kind)
+    return db
+
+
+@pytest.fixture
+def db(tmp_path: Path) -> str:
+    return _catalog(tmp_path)
+
+
+@pytest.fixture
+def standard():
+    return load_profile("standard")
+
+
+def test_each_line_is_the_hand_worked_best_part(db, standard):
+    bom = build_bom(db, load_spec(SPEC), profile=standard)
+    chosen = {line.designator: (line.choice.mpn, line.qty) for line in bom.lines}
+    assert chosen == {
+        "L1": ("BT-L120B", 1),
+        "CIN": ("BT-C106B25", 1),
+        "COUT": ("BT-C106A50", 3),
+        "D1": ("BT-D340", 1),
+        "Q1": ("BT-N4020", 1),
+    }
+    assert all(line.status == "passed" for line in bom.lines)
+    assert [a.mpn for a in bom.lines[0].alternates] == ["BT-L150A"]
+
+
+def test_bom_is_consistent_with_pick(db, standard):
+    spec = load_spec(SPEC)
+    bom = build_bom(db, spec, profile=standard)
+    for line in bom.lines:
+        result = pick(db, bom.spec, line.role, profile=standard)
+        assert line.choice.mpn == result.passed[0].mpn, line.role
+
+
+def test_rank_by_cost_changes_the_inductor(db, standard):
+    bom = build_bom(db, load_spec(SPEC), profile=standard, rank="cost")
+    # BT-L150A costs 1.00 against 1.20 for BT-L120B (hand-read from the catalog)
+    assert bom.lines[0].choice.mpn == "BT-L150A"
+
+
+def test_totals_add_up(db, standard):
+    bom = build_bom(db, load_spec(SPEC), profile=standard)
+    assert bom.total_cost == pytest.approx(2.35)  # worked out in the module docstring
+    assert bom.total_loss_w == pytest.approx(sum(bom.losses_w.values()))
+    pout_w = 24.0 * 0.8
+    assert bom.efficiency == pytest.approx(pout_w / (pout_w + bom.total_loss_w))
+    # inductor copper loss at 12 µH: IL = 3.765 A, ripple 1.23 A at 6 V → rms 3.78 A;
+    # 3.78² · 15 mΩ = 0.214 W (Erickson & Maksimovic, 3rd ed., ch. 3, I²R)
+    assert bom.losses_w["inductor"] == pytest.approx(0.214, rel=0.01)
+    # diode: VF · Iout = 0.5 V · 0.8 A = 0.40 W with no recovered charge
+    assert bom.losses_w["diode"] == pytest.approx(0.40)
+
+
+def test_ripple_of_the_real_set(db, standard):
+    bom = build_bom(db, load_spec(SPEC), profile=standard)
+    ripple = bom.ripple
+    # BT-L120B at 12 µH: the largest ripple Vin·D/(fsw·L) is at 8.4 V: 5.901/(400e3·12e-6)
+    # = 1.229 A; at its minimum 9.6 µH, 1.537 A
+    assert ripple.il_ripple_nominal_a == pytest.approx(1.229, rel=2e-3)
+    assert ripple.il_ripple_min_l_a == pytest.approx(1.537, rel=2e-3)
+    # three BT-C106A50: 0.8·0.7875/(400e3·3·4.8e-6) + 0.005/3 · 4.38 A = 0.1094 + 0.0073 V
+    assert ripple.vout_ripple_v == pytest.approx(0.1167, rel=5e-3)
+    # K = 2·L·fsw/R with R = 24/(0.85·0.8) = 35.3 Ω: 2·9.6e-6·400e3/35.3 = 0.218, above
+    # the largest K_crit = D(1−D)² = 0.7025·0.2975² = 0.062 (Erickson & Maksimovic, ch. 5)
+    assert ripple.ccm_full_load is True
+
+
+def test_efficiency_rounds_converge_when_the_estimate_was_optimistic(tmp_path, standard):
+    # one lossy inductor (300 mΩ): round 1 at η = 0.85 loses about 3.77² · 0.3 = 4.3 W plus
+    # 0.4 W in the diode and 0.4 W in the switch: η ≈ 19.2/24.3 = 0.79 < 0.85, so the
+    # currents were underestimated and a second round is needed.
+    db = _catalog(tmp_path, inductor="lossy_inductors.csv")
+    bom = build_bom(db, load_spec(SPEC), profile=standard)
+    rounds = bom.rounds
+    assert 2 <= len(rounds) <= 5
+    assert rounds[0].efficiency_used == 0.85
+    assert rounds[0].efficiency_estimated < 0.80
+    for earlier, later in zip(rounds, rounds[1:], strict=False):
+        assert later.efficiency_used == earlier.efficiency_estimated
+    assert abs(rounds[-1].efficiency_estimated - rounds[-1].efficiency_used) < 0.01
+    assert bom.spec.efficiency == rounds[-1].efficiency_used
+
+
+def _outcome(role: str, part: dict, count: int = 1) -> Outcome:
+    return Outcome(
+        mpn="BT-X",
+        manufacturer="Brackwater Test",
+        role=role,
+        status="passed",
+        count=count,
+        loss_w=None,
+        unit_price=1.0,
+        cost=1.0,
+        area_mm2=None,
+        checks=(),
+        notes=(),
+        missing=(),
+        part=part,
+    )
+
+
+@pytest.mark.parametrize(
+    ("vin_v", "duty", "rl_over_r", "expected"),
+    [
+        # Erickson & Maksimovic, Fundamentals of Power Electronics, 3rd ed., ch. 3: with only
+        # the inductor resistance, eta = 1 / (1 + R_L / ((1 − D)² R)).
+        (12.0, 0.5, 0.02, 0.926),  # 1 / (1 + 0.02/0.25) = 0.9259
+        (4.8, 0.8, 0.01, 0.80),  # 1 / (1 + 0.01/0.04) = 0.80
+    ],
+)
+def test_dcr_only_loss_estimate_matches_the_averaged_model(
+    vin_v, duty, rl_over_r, expected, standard
+):
+    spec = load_spec(
+        None,
+        {
+            "vin_min": vin_v,
+            "vin_max": vin_v,
+            "vout": 24.0,
+            "iout": 1.0,
+            "fsw": 100e3,
+            "vout_ripple": 0.1,
+            "efficiency": 1.0,
+        },
+    )
+    load_ohm = 24.0  # 24 V at 1 A
+    # 10 mH keeps the ripple tiny (12 V · 0.5 / (100 kHz · 10 mH) = 6 mA), so I_rms ≈ I_L
+    inductor = _outcome("inductor", {"inductance_h": 10e-3, "dcr_ohm": rl_over_r * load_ohm})
+    lines = (
+        BomLine("inductor", "L1", "passed", inductor),
+        BomLine("input-cap", "CIN", "passed", _outcome("input-cap", {})),
+        BomLine("output-cap", "COUT", "passed", _outcome("output-cap", {})),
+        BomLine("diode", "D1", "passed", _outcome("diode", {})),
+        BomLine("switch", "Q1", "passed", _outcome("switch", {})),
+    )
+    role_losses, notes = estimate_losses(spec, lines, standard)
+    assert duty == pytest.approx(1 - vin_v / 24.0)
+    eta = efficiency_from_losses(24.0 * 1.0, sum(role_losses.values()))
+    assert eta == pytest.approx(expected, abs=5e-4)
+    assert len(notes) == 4  # every other role's loss is said to be left out
+
+
+def test_markdown_report_has_its_sections_and_rows(db, standard):
+    text = bom_markdown(build_bom(db, load_spec(SPEC), profile=standard))
+    for heading in (
+        "# Design review: bom test stage",
+        "## Specification",
+        "## Worst-case stresses",
+        "## Bill of materials",
+        "## Derating notes",
+        "## Losses and efficiency",
+        "## Cautions",
+    ):
+        assert f"\n{heading}\n" in f"\n{text}"
+    rows = [line for line in text.splitlines() if line.startswith("| L1 |")]
+    assert len(rows) == 1 and "BT-L120B" in rows[0]
+    assert "| COUT | output-cap | 3 |" in text
+    assert "VRRM 40 V vs 24.1 V stress: 60 % use, limit 80 % (standard profile)" in text
+
+
+def test_json_document_contract(db, standard):
+    document = json.loads(
+        json.dumps(bom_document(build_bom(db, load_spec(SPEC), profile=standard)))
+    )
+    for key in (
+        "spec",
+        "stress",
+        "lines",
+        "losses_w",
+        "efficiency",
+        "rounds",
+        "total_cost",
+        "cautions",
+    ):
+        assert key in document
+    line = document["lines"][0]
+    for key in (
+        "role",
+        "designator",
+        "qty",
+        "mpn",
+        "manufacturer",
+        "unit_price",
+        "notes",
+        "status",
+    ):
+        assert key in line
+    assert document["total_cost"] == pytest.approx(2.35)
+
+
+def test_csv_neutralises_catalog_text_and_keeps_numbers(tmp_path, standard):
+    evil = tmp_path / "evil.csv"
+    evil.write_text(
+        (DATA / "inductors.csv")
+        .read_text()
+        .replace("Brackwater Test Coils", '"=HYPERLINK(""http://x"")"', 1)
+    )
+    db = _catalog(tmp_path, inductor=str(evil))
+    rows = list(
+        csv.DictReader(io.StringIO(bom_csv(build_bom(db, load_spec(SPEC), profile=standard))))
+    )
+    by_ref = {row["designator"]: row for row in rows}
+    # BT-L150A carried the formula; BT-L120B still wins, so check the alternate path too
+    assert not any(row["manufacturer"].startswith("=") for row in rows)
+    assert float(by_ref["L1"]["unit_price"]) == pytest.approx(1.20)
+    assert float(by_ref["TOTAL"]["extended_price"]) == pytest.approx(2.35)
+
+
+def test_exit_3_when_a_role_has_no_part(tmp_path):
+    db = _catalog(tmp_path, diode="diodes_low_voltage.csv")
+    result = CliRunner().invoke(app, ["bom", str(SPEC), "--db", db, "--no-verify"])
+    assert result.exit_code == 3, result.output
+    assert "NO PART PASSES" in result.output
+    assert "BT-D320" in result.output  # the closest failure is shown with its reason
+
+
+def test_cli_writes_the_report_atomically(db, tmp_path):
+    out = tmp_path / "review.md"
+    result = CliRunner().invoke(
+        app, ["bom", str(SPEC), "--db", db, "--format", "md", "--output", str(out), "--no-verify"]
+    )
+    assert result.exit_code == 0, result.output
+    assert out.read_text().startswith("# Design review: bom test stage")
+    assert [p.name for p in tmp_path.iterdir() if p.name.endswith(".tmp")] == []
+
+
+@pytest.mark.parametrize("fmt", ["table", "csv", "md", "json"])
+def test_cli_formats(db, fmt):
+    result = CliRunner().invoke(app, ["bom", str(SPEC), "--db", db, "--format", fmt, "--no-verify"])
+    assert result.exit_code == 0, result.output
+    assert "BT-L120B" in result.output
