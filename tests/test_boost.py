@@ -9,6 +9,7 @@ import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
+from partpick.design.linemax import LineEnvelope
 from partpick.design.spec import Spec
 from partpick.design.topologies import analyse, get_topology
 from partpick.design.topologies.boost import (
@@ -462,3 +463,20 @@ def test_input_capacitance_with_vin_ripple():
 def test_esr_limit():
     # Texas Instruments SLVA372: ESR = ΔVout/(IL + ΔIL/2); 0.12 V/4.3676 A = 27.47 mΩ
     assert esr_max_ohm(0.12, 4.3676) == pytest.approx(27.475e-3, rel=1e-4)
+
+
+@settings(max_examples=200, deadline=None)
+@given(
+    st.lists(st.tuples(st.floats(-10, 10), st.floats(0, 10)), min_size=1, max_size=40),
+    st.lists(st.floats(0, 100), min_size=1, max_size=20),
+)
+def test_line_envelope_is_the_maximum_of_its_lines(lines, points):
+    # The maximisation behind stresses_at, checked against evaluating every line.
+    p = np.array([line[0] for line in lines])
+    q = np.array([line[1] for line in lines])
+    u = np.array(points)
+    value, x = LineEnvelope.build(p, q, np.arange(len(p), dtype=float)).evaluate(u)
+    brute = (p[None, :] + q[None, :] * u[:, None]).max(axis=1)
+    np.testing.assert_allclose(value, brute, rtol=1e-12, atol=1e-12)
+    chosen = x.astype(int)
+    np.testing.assert_allclose(p[chosen] + q[chosen] * u, brute, rtol=1e-12, atol=1e-12)

@@ -36,7 +36,8 @@ class LineEnvelope:
         x = np.asarray(xs, dtype=float).ravel()
         hull = _upper_hull(p, q)
         p, q, x = p[hull], q[hull], x[hull]
-        breakpoints = (p[:-1] - p[1:]) / (q[1:] - q[:-1])
+        with np.errstate(over="ignore"):  # nearly parallel lines cross at ±inf, which is right
+            breakpoints = (p[:-1] - p[1:]) / (q[1:] - q[:-1])
         return cls(p, q, x, breakpoints)
 
     def evaluate(self, u: np.ndarray) -> tuple[np.ndarray, np.ndarray]:

@@ -97,4 +97,3 @@ class BoostTopology:
         load_ohm = effective_load_resistance_ohm(spec.vout_v, spec.iout_a, spec.efficiency)
         k_factor = ccm_k_factor(inductance_h, load_ohm, spec.fsw_hz)
         return bool(np.all(k_factor > ccm_k_critical(grid.duty)))
-

@@ -47,10 +47,13 @@ class _Figures:
     def __init__(self) -> None:
         self.items: dict[str, Figure] = {}
 
-    def add(self, key, value, unit, group, label, vin=None) -> None:
-        value = None if value is None else float(value)
-        vin = None if vin is None else float(vin)
-        self.items[key] = Figure(key, value, unit, group, label, vin)
+    def add(
+        self, key: str, value: object, unit: str, group: str, label: str, vin: object = None
+    ) -> None:
+        """Add one figure; numpy scalars become floats, the Vin where it is worst is optional."""
+        number = None if value is None else float(value)  # type: ignore[arg-type]
+        worst_vin = None if vin is None else float(vin)  # type: ignore[arg-type]
+        self.items[key] = Figure(key, number, unit, group, label, worst_vin)
 
 
 @dataclass(frozen=True)
@@ -195,25 +198,39 @@ def _add_conduction(
     add("k_full_load", k_full, "", "inductor", "K = 2L/(R·Ts), full load at l_min")
     add("l_crit_h", l_crit, "H", "inductor", "critical inductance, full load", vin_worst)
     ccm = bool(k_full > kcrit[worst])
-    warnings = [] if ccm else [_full_load_dcm_warning(vin_worst)]
+    warnings = () if ccm else (_full_load_dcm_warning(vin_worst),)
     if spec.iout_min_a is None:
-        return _Conduction(ccm, None, None, tuple(warnings))
+        return _Conduction(ccm, None, None, warnings)
+    light = _add_light_load(figures, spec, grid, l_min, worst)
+    return _Conduction(ccm, light.ccm, light.dcm_ratio_light_load, warnings + light.warnings)
+
+
+def _add_light_load(
+    figures: _Figures, spec: Spec, grid: OperatingGrid, l_min: float, worst: int
+) -> _Conduction:
+    """Add the iout_min figures and return their verdict (its ``ccm`` is the light-load one).
+
+    ``worst`` indexes the grid point of the largest K_crit.
+    """
+    vin_worst = grid.vin_v[worst]
+    kcrit = ccm_k_critical(grid.duty[worst])
+    add = figures.add
     r_light = effective_load_resistance_ohm(spec.vout_v, spec.iout_min_a, spec.efficiency)
     k_light = float(ccm_k_factor(l_min, r_light, spec.fsw_hz))
     add("k_light_load", k_light, "", "inductor", "K at iout_min and l_min")
     l_crit_light = critical_inductance_h(grid.duty[worst], r_light, spec.fsw_hz)
     add("l_crit_light_load_h", l_crit_light, "H", "inductor", "critical inductance, iout_min",
         vin_worst)  # fmt: skip
-    if k_light > kcrit[worst]:
-        return _Conduction(ccm, True, None, tuple(warnings))
+    if k_light > kcrit:
+        return _Conduction(True, None, None, ())
     ratio = float(dcm_conversion_ratio(grid.duty[worst], k_light))
     duty_dcm = dcm_duty_cycle(ccm_conversion_ratio(grid.duty[worst]), k_light)
     add("dcm_ratio_light_load", ratio, "", "duty", "DCM ratio M at the CCM duty, iout_min",
         vin_worst)  # fmt: skip
     add("duty_light_load_dcm", duty_dcm, "fraction", "duty", "duty needed in DCM at iout_min",
         vin_worst)  # fmt: skip
-    warnings.append(_light_load_dcm_warning(spec, vin_worst, ratio, float(duty_dcm)))
-    return _Conduction(ccm, False, ratio, tuple(warnings))
+    warning = _light_load_dcm_warning(spec, vin_worst, ratio, float(duty_dcm))
+    return _Conduction(False, None, ratio, (warning,))
 
 
 def _full_load_dcm_warning(vin_v: float) -> Caution:
