@@ -240,7 +240,10 @@ def _match_one(header: str, index: dict) -> tuple[Field, str, tuple[str, ...]] |
     """Try the whole header, then without its units, then without any bracket or qualifier."""
     words, unit_texts = split_header_units(header)
     bare = re.sub(r"[\(\[\{][^\)\]\}]*[\)\]\}]", " ", words)
-    candidates = [(fold_text(header), ()), (fold_text(words), unit_texts)]
+    whole = fold_text(header)
+    # A unit that folds away entirely ("Tolerance (%)") still applies to the whole header.
+    candidates = [(whole, unit_texts if whole == fold_text(words) else ())]
+    candidates.append((fold_text(words), unit_texts))
     candidates.append((fold_text(bare), unit_texts))
     candidates.append((_QUALIFIER_TAIL_RE.sub("", fold_text(bare)), unit_texts))
     for key, units in candidates:

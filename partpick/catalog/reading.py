@@ -21,7 +21,7 @@ from partpick.catalog.headers import ColumnMatch, HeaderPlan, MapFile, match_hea
 from partpick.catalog.schema import stored_fields
 from partpick.catalog.sniff import FileFormat, sniff_file
 from partpick.errors import CatalogFormatError, MapFileError
-from partpick.fields import KIND_FIELDS, field_of
+from partpick.fields import KIND_FIELDS, Field, field_of
 from partpick.units import unit_multiplier
 
 _BAD_LINE_RE = re.compile(r"Skipping line (\d+): expected (\d+) fields, saw (\d+)")
@@ -135,12 +135,21 @@ def _require_columns(name: str, kind: str, headers: tuple[str, ...], plan: Heade
         raise CatalogFormatError(
             name, f"no part-number column (a header such as {wordings}); map one in a map file", 1
         )
-    own = {f.name for f in KIND_FIELDS[kind]}
-    if not own & found:
-        examples = ", ".join(f.synonyms[0] for f in KIND_FIELDS[kind][:4] if f.synonyms)
+    own = _own_fields(kind)
+    if not {f.name for f in own} & found:
+        examples = ", ".join(repr(f.synonyms[0]) for f in own[:4])
+        article = "an" if kind[0] in "aeiou" else "a"
         raise CatalogFormatError(
-            name, f"no column holds a {kind} value (such as {examples}); is --kind right?", 1
+            name,
+            f"no column holds {article} {kind} value (such as {examples}); is --kind right?",
+            1,
         )
+
+
+def _own_fields(kind: str) -> tuple[Field, ...]:
+    """Return the fields only ``kind`` has (tolerance or sizes do not tell kinds apart)."""
+    others = {f.name for k, fs in KIND_FIELDS.items() if k != kind for f in fs}
+    return tuple(f for f in KIND_FIELDS[kind] if f.name not in others)
 
 
 def _looks_like_values(headers: tuple[str, ...]) -> bool:
