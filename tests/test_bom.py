@@ -217,7 +217,7 @@ def test_markdown_report_has_its_sections_and_rows(db, standard):
     rows = [line for line in text.splitlines() if line.startswith("| L1 |")]
     assert len(rows) == 1 and "BT-L120B" in rows[0]
     assert "| COUT | output-cap | 3 |" in text
-    assert "VRRM 40 V vs 24.1 V stress: 60 % use, limit 80 % (standard profile)" in text
+    assert "VRRM 40 V vs 24.1 V reverse: 60% use, limit 80% (standard profile)" in text
 
 
 def test_json_document_contract(db, standard):

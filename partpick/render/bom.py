@@ -24,23 +24,12 @@ from partpick.render.console import (
     STYLE_UNVERIFIED,
 )
 from partpick.render.exports import csv_text, json_text, markdown_table
+from partpick.render.pick import check_sentence
 from partpick.screening.checks import Check, Outcome
 from partpick.units import format_eng
 
 STATUS_STYLES = {"passed": STYLE_PASS, "unverified": STYLE_UNVERIFIED, "no-part": STYLE_FAIL}
 STATUS_WORDS = {"passed": "passed", "unverified": "UNVERIFIED", "no-part": "NO PART PASSES"}
-
-# How each rule's rating is named in a note, and the field it is the rating of.
-RATING_NAMES: dict[str, str] = {
-    "saturation": "Isat",
-    "rms": "Irms",
-    "voltage": "rated voltage",
-    "ripple-current": "ripple rating",
-    "reverse-voltage": "VRRM",
-    "forward-current": "IF(AV)",
-    "drain-voltage": "VDS",
-    "drain-current": "ID",
-}
 
 
 def _eng(value: float | None, unit: str) -> str:
@@ -51,42 +40,14 @@ def _percent(value: float | None) -> str:
     return "—" if value is None else f"{value * 100:.0f} %"
 
 
-def check_note(check: Check, profile_name: str) -> str:
-    """Return the one-line derating note for ``check``, e.g. for a diode's reverse voltage:
+def check_note(check: Check, profile_name: str, count: int = 1) -> str:
+    """Return the derating note of ``check``: the pick report's sentence plus the policy.
 
-    "VRRM 60 V vs 36.1 V stress: 60 % use, limit 80 % (standard profile)".
+    For a diode's reverse voltage, e.g. "reverse-voltage: VRRM 60 V vs 36.1 V stress:
+    60% use, limit 80% (standard profile)".
     """
     verdict = "" if check.status == "pass" else f" [{check.status.upper()}]"
-    if check.status == "unverified":
-        return f"{check.rule}: not checked, missing {', '.join(check.missing)}{verdict}"
-    if check.rule in RATING_NAMES and check.rating is not None:
-        return (
-            f"{RATING_NAMES[check.rule]} {_eng(check.rating, check.unit)} vs "
-            f"{_eng(check.stress, check.unit)} stress"
-            f"{_at_vin(check)}: {_percent(check.utilisation)} use, limit "
-            f"{_percent(check.derating)} ({profile_name} profile){verdict}"
-        )
-    if check.rule == "thermal":
-        return (
-            f"junction {check.stress:.0f} °C{_at_vin(check)} vs limit {check.limit:.0f} °C "
-            f"(Tj max {check.rating:.0f} °C less margin): {_percent(check.utilisation)} of the "
-            f"allowed rise ({profile_name} profile){verdict}"
-        )
-    if check.rule == "window":
-        return (
-            f"inductance {_eng(check.stress, check.unit)} inside the window up to "
-            f"{_eng(check.limit, check.unit)}{verdict}"
-        )
-    if check.stress is None or check.limit is None:
-        return f"{check.rule}: {'ok' if check.status == 'pass' else 'fails'}{verdict}"
-    return (
-        f"{check.rule}: {_eng(check.stress, check.unit)} vs limit "
-        f"{_eng(check.limit, check.unit)} ({_percent(check.utilisation)}){verdict}"
-    )
-
-
-def _at_vin(check: Check) -> str:
-    return "" if check.worst_vin_v is None else f" at {check.worst_vin_v:.3g} V in"
+    return f"{check_sentence(check, count)} ({profile_name} profile){verdict}"
 
 
 def line_notes(line: BomLine, profile_name: str) -> list[str]:
@@ -97,7 +58,7 @@ def line_notes(line: BomLine, profile_name: str) -> list[str]:
             + ", ".join(check_note(c, profile_name) for c in o.failing)
             for o in line.closest_failures
         ]
-    notes = [check_note(c, profile_name) for c in line.choice.checks]
+    notes = [check_note(c, profile_name, line.qty) for c in line.choice.checks]
     notes += list(line.choice.notes)
     if line.status == "unverified":
         notes.append(f"UNVERIFIED: missing {', '.join(line.choice.missing)}")
