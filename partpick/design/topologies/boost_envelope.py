@@ -195,7 +195,13 @@ def _add_conduction(
     l_crit = critical_inductance_h(grid.duty[worst], r_full, spec.fsw_hz)
     add = figures.add
     add("k_crit_max", kcrit[worst], "", "inductor", "K_crit = D(1−D)², largest", vin_worst)
-    add("k_full_load", k_full, "", "inductor", "K = 2L/(R·Ts), full load at l_min")
+    add(
+        "k_full_load",
+        k_full,
+        "",
+        "inductor",
+        "K = 2L/(R·Ts), R = Vout/(η·Iout), full load at l_min",
+    )
     add("l_crit_h", l_crit, "H", "inductor", "critical inductance, full load", vin_worst)
     ccm = bool(k_full > kcrit[worst])
     warnings = () if ccm else (_full_load_dcm_warning(vin_worst),)
@@ -217,7 +223,7 @@ def _add_light_load(
     add = figures.add
     r_light = effective_load_resistance_ohm(spec.vout_v, spec.iout_min_a, spec.efficiency)
     k_light = float(ccm_k_factor(l_min, r_light, spec.fsw_hz))
-    add("k_light_load", k_light, "", "inductor", "K at iout_min and l_min")
+    add("k_light_load", k_light, "", "inductor", "K at iout_min and l_min, R = Vout/(η·Iout_min)")
     l_crit_light = critical_inductance_h(grid.duty[worst], r_light, spec.fsw_hz)
     add("l_crit_light_load_h", l_crit_light, "H", "inductor", "critical inductance, iout_min",
         vin_worst)  # fmt: skip
