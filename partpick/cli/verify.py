@@ -1,7 +1,189 @@
-"""Placeholder until its issue lands: registers no command yet."""
+"""``partpick verify``: the steady-state waveforms and losses of a chosen set of parts."""
+
+from __future__ import annotations
+
+from enum import StrEnum
+from pathlib import Path
+from typing import Annotated
 
 import typer
 
+from partpick.cli.common import DbOption, friendly_errors
+from partpick.cli.spec_options import with_spec_options
+from partpick.design.spec import Spec
+from partpick.render.console import make_console
+from partpick.render.exports import json_text
+from partpick.units import parse_quantity
+from partpick.verify.stage import PARAMETERS  # light: no scipy until a command runs
+
+PARTS_PANEL = "Parts (name each, or give --bom)"
+OVERRIDES_PANEL = "Overrides of catalog figures"
+POINTS_PANEL = "Operating points"
+
+
+class VerifyFormat(StrEnum):
+    """Output forms of ``partpick verify``."""
+
+    table = "table"
+    json = "json"
+
+
+def _part(flag: str, what: str):
+    return Annotated[
+        str | None,
+        typer.Option(
+            flag, metavar="MPN", help=f"Part number of the {what}.", rich_help_panel=PARTS_PANEL
+        ),
+    ]
+
+
+def _override(flag: str, example: str, what: str):
+    return Annotated[
+        str | None,
+        typer.Option(
+            flag,
+            help=f'{what}, overriding the catalog (e.g. {flag} "{example}").',
+            rich_help_panel=OVERRIDES_PANEL,
+            show_default=False,
+        ),
+    ]
+
+
+_EXAMPLES = {p.option: p.example for p in PARAMETERS}
+_OVERRIDE_FIELDS = {p.option: (p.field, p.unit) for p in PARAMETERS}
+
 
 def register(app: typer.Typer) -> None:
-    """Add this module's commands to app."""
+    """Add the ``verify`` command to ``app``."""
+    app.command("verify")(verify_command)
+
+
+@friendly_errors
+@with_spec_options
+def verify_command(
+    spec: Spec,
+    inductor: _part("--inductor", "inductor") = None,
+    output_cap: _part("--output-cap", "output capacitor") = None,
+    output_count: Annotated[
+        int | None,
+        typer.Option(
+            "--output-count",
+            min=1,
+            help="Output capacitors in parallel (default 1, or the BOM's).",
+            rich_help_panel=PARTS_PANEL,
+        ),
+    ] = None,
+    diode: _part("--diode", "rectifier diode") = None,
+    switch: _part("--switch", "low-side MOSFET") = None,
+    bom: Annotated[
+        Path | None,
+        typer.Option(
+            "--bom",
+            metavar="BOM.json",
+            help="Take every part from a BOM saved by partpick bom --format json.",
+            rich_help_panel=PARTS_PANEL,
+            dir_okay=False,
+        ),
+    ] = None,
+    profile: Annotated[
+        str | None,
+        typer.Option(
+            "--profile",
+            help="Derating profile for the hot factor and effective capacitance "
+            "(default: the BOM's, else standard).",
+        ),
+    ] = None,
+    vin: Annotated[
+        list[str] | None,
+        typer.Option(
+            "--vin", help="Add an input voltage (repeatable).", rich_help_panel=POINTS_PANEL
+        ),
+    ] = None,
+    load: Annotated[
+        list[str] | None,
+        typer.Option(
+            "--load", help="Add a load current (repeatable).", rich_help_panel=POINTS_PANEL
+        ),
+    ] = None,
+    duty: Annotated[
+        str | None,
+        typer.Option(
+            "--duty",
+            help="Run open loop at this duty instead of regulating vout.",
+            rich_help_panel=POINTS_PANEL,
+        ),
+    ] = None,
+    inductance: _override("--inductance", _EXAMPLES["--inductance"], "Inductance") = None,
+    dcr: _override("--dcr", _EXAMPLES["--dcr"], "Inductor DC resistance") = None,
+    capacitance: _override(
+        "--capacitance", _EXAMPLES["--capacitance"], "Nominal capacitance of one output capacitor"
+    ) = None,
+    esr: _override("--esr", _EXAMPLES["--esr"], "ESR of one output capacitor") = None,
+    rds_on: _override("--rds-on", _EXAMPLES["--rds-on"], "Switch Rds(on) at 25 °C") = None,
+    qgd: _override("--qgd", _EXAMPLES["--qgd"], "Switch gate-drain charge") = None,
+    coss: _override("--coss", _EXAMPLES["--coss"], "Switch output capacitance") = None,
+    vf: _override("--vf", _EXAMPLES["--vf"], "Diode forward drop") = None,
+    rd: _override("--rd", _EXAMPLES["--rd"], "Diode series resistance") = None,
+    qrr: _override("--qrr", _EXAMPLES["--qrr"], "Diode reverse recovery charge") = None,
+    output_format: Annotated[
+        VerifyFormat,
+        typer.Option("--format", help="table for people, json (SI units) for scripts."),
+    ] = VerifyFormat.table,
+    plot: Annotated[
+        Path | None,
+        typer.Option(
+            "--plot",
+            metavar="FILE",
+            help="Also draw the waveforms and efficiency curves (.png or .svg).",
+            dir_okay=False,
+        ),
+    ] = None,
+    db: DbOption = None,
+) -> None:
+    """Solve the exact steady state of the chosen parts at each operating point.
+
+    Example: partpick verify logger.toml --inductor QM-100-0630 --output-cap KC-226-X7R
+    --output-count 3 --diode SV-SB340 --switch NT-N30-12 --plot stage.png
+    """
+    given = {
+        "--inductance": inductance,
+        "--dcr": dcr,
+        "--capacitance": capacitance,
+        "--esr": esr,
+        "--rds-on": rds_on,
+        "--qgd": qgd,
+        "--coss": coss,
+        "--vf": vf,
+        "--rd": rd,
+        "--qrr": qrr,
+    }
+    overrides = {
+        _OVERRIDE_FIELDS[flag][0]: parse_quantity(text, _OVERRIDE_FIELDS[flag][1])
+        for flag, text in given.items()
+        if text is not None
+    }
+    from partpick.render.verify import render_verify
+    from partpick.verify.parts import verify_selection
+
+    result = verify_selection(
+        spec,
+        db=db,
+        mpns={"inductor": inductor, "output-cap": output_cap, "diode": diode, "switch": switch},
+        bom_file=bom,
+        output_count=output_count,
+        profile_name=profile,
+        overrides=overrides,
+        extra_vin_v=[parse_quantity(v, "V") for v in vin or ()],
+        extra_iout_a=[parse_quantity(i, "A") for i in load or ()],
+        duty=parse_quantity(duty, "fraction") if duty is not None else None,
+    )
+    if plot is not None:
+        from partpick.verify.plot import save_plot  # matplotlib only when a plot is asked for
+
+        save_plot(plot, result)
+    if output_format is VerifyFormat.json:
+        typer.echo(json_text(result.to_dict()), nl=False)
+        return
+    render_verify(result, make_console())
+    if plot is not None:
+        typer.echo(f"plot written to {plot}")

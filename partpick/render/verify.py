@@ -1,0 +1,149 @@
+"""Terminal view of a verification: the stage, one row per operating point, losses, warnings."""
+
+from __future__ import annotations
+
+from rich import box
+from rich.console import Console
+from rich.panel import Panel
+from rich.table import Table
+from rich.text import Text
+
+from partpick.render.console import STYLE_CAUTION, STYLE_HEADING, STYLE_MUTED, STYLE_UNVERIFIED
+from partpick.units import format_eng
+from partpick.verify.stage import Stage
+from partpick.verify.steady_state import LOSS_KEYS
+from partpick.verify.sweep import PointResult, VerifyResult, VerifyWarning
+
+LOSS_TITLES = {
+    "dcr": "DCR",
+    "switch_conduction": "Q cond",
+    "switching": "Q sw",
+    "coss": "Coss",
+    "diode_conduction": "D cond",
+    "diode_recovery": "D Qrr",
+    "esr": "ESR",
+}
+
+
+def stage_summary(stage: Stage) -> Text:
+    """Return the one-line description of the stage's figures."""
+    bank = f"{stage.output_count} × {format_eng(stage.cout_f, 'F')} effective"
+    line = (
+        f"L {format_eng(stage.inductance_h, 'H')} (DCR {format_eng(stage.dcr_ohm, 'ohm')}), "
+        f"Rds(on) {format_eng(stage.rds_on_ohm, 'ohm')} × {stage.hot_factor:g} hot, "
+        f"diode {format_eng(stage.diode_vf_v, 'V')}"
+        + (f" + {format_eng(stage.diode_rd_ohm, 'ohm')}" if stage.diode_rd_ohm else "")
+        + f", Cout {bank} (ESR {format_eng(stage.esr_ohm, 'ohm')} each), "
+        f"{format_eng(stage.fsw_hz, 'Hz')}"
+    )
+    return Text(line, style=STYLE_HEADING)
+
+
+def points_table(result: VerifyResult) -> Table:
+    """Return one row per operating point: duty, output, ripple, inductor current, efficiency."""
+    table = Table(
+        box=box.SIMPLE_HEAD, header_style=STYLE_HEADING, pad_edge=False, collapse_padding=True
+    )
+    for title in ("Vin", "Iout", "Mode", "Duty", "Vout", "Ripple", "iL min", "iL max"):
+        table.add_column(title, justify="right", no_wrap=True)
+    table.add_column("iL rms", justify="right", no_wrap=True)
+    table.add_column("Eff.", justify="right", no_wrap=True)
+    flagged = {(w.vin_v, w.iout_a) for w in result.warnings}
+    for item in result.points:
+        s = item.state
+        style = STYLE_UNVERIFIED if (item.point.vin_v, item.point.iout_a) in flagged else None
+        table.add_row(
+            format_eng(item.point.vin_v, "V"),
+            format_eng(item.point.iout_a, "A"),
+            s.mode.upper(),
+            f"{s.duty:.3f}",
+            format_eng(s.vout_avg_v, "V", 4),
+            format_eng(s.vout_ripple_v, "V"),
+            format_eng(s.il_min_a, "A"),
+            format_eng(s.il_max_a, "A"),
+            format_eng(s.il_rms_a, "A"),
+            f"{s.efficiency * 100:.1f} %",
+            style=style,
+        )
+    return table
+
+
+def losses_table(points: tuple[PointResult, ...]) -> Table:
+    """Return the loss of each element at each operating point, in W."""
+    table = Table(
+        box=box.SIMPLE_HEAD, header_style=STYLE_HEADING, pad_edge=False, collapse_padding=True
+    )
+    table.add_column("Vin", justify="right", no_wrap=True)
+    table.add_column("Iout", justify="right", no_wrap=True)
+    for key in LOSS_KEYS:
+        table.add_column(LOSS_TITLES[key], justify="right", no_wrap=True)
+    table.add_column("Total", justify="right", no_wrap=True)
+    for item in points:
+        cells = [format_eng(item.state.losses_w[key], "W") for key in LOSS_KEYS]
+        table.add_row(
+            format_eng(item.point.vin_v, "V"),
+            format_eng(item.point.iout_a, "A"),
+            *cells,
+            format_eng(item.state.total_loss_w, "W"),
+        )
+    return table
+
+
+def warning_sentence(warning: VerifyWarning) -> str:
+    """Return the sentence of one warning, naming its operating point."""
+    where = f"{format_eng(warning.vin_v, 'V')} in, {format_eng(warning.iout_a, 'A')} out"
+    value, limit = warning.value, warning.limit
+    if warning.code == "vout-unreachable":
+        text = (
+            f"the output cannot reach {format_eng(limit, 'V')} (at best "
+            f"{format_eng(value, 'V', 4)}): the losses cap the boost ratio"
+        )
+    elif warning.code == "ripple-above-limit":
+        text = (
+            f"output ripple {format_eng(value, 'V')} p-p is above the "
+            f"{format_eng(limit, 'V')} limit"
+        )
+    elif warning.code == "dcm-where-ccm-assumed":
+        text = (
+            "the stage runs in DCM, where the design assumed CCM "
+            f"(down to {format_eng(limit, 'A')}); the stress figures assume CCM"
+        )
+    elif warning.code == "high-duty":
+        text = (
+            f"the regulated duty {value:.3f} is above {limit:g}; a boost this close to full "
+            "duty is hard to control and loses efficiency (common practice)"
+        )
+    elif warning.code == "efficiency-off-estimate":
+        text = (
+            f"efficiency {value * 100:.1f} % is far from the {limit * 100:.1f} % estimate the "
+            "design used; rerun with --efficiency set to it"
+        )
+    else:  # a code added to the core before its sentence: still show the facts
+        text = f"{warning.code}: {value:g} (limit {limit})"
+    return f"{where}: {text}"
+
+
+def render_verify(result: VerifyResult, console: Console) -> None:
+    """Print the verification: stage, points, losses and a panel of warnings."""
+    console.print(stage_summary(result.stage))
+    regime = (
+        f"regulated to {format_eng(result.vout_v, 'V')}"
+        if result.regulated
+        else f"open loop at duty {result.duty:g}"
+    )
+    console.print(
+        Text(
+            f"Steady state, {regime}; ripple limit {format_eng(result.vout_ripple_limit_v, 'V')}",
+            style=STYLE_MUTED,
+        )
+    )
+    console.print(points_table(result))
+    console.print(Text("Losses per element", style=STYLE_HEADING))
+    console.print(losses_table(result.points))
+    for note in result.stage.notes:
+        console.print(Text(f"note: {note}", style=STYLE_MUTED))
+    if result.warnings:
+        body = "\n".join(f"• {warning_sentence(w)}" for w in result.warnings)
+        console.print(Panel(body, title="Warnings", border_style=STYLE_CAUTION))
+    else:
+        console.print(Text("No warnings.", style=STYLE_MUTED))
