@@ -16,6 +16,7 @@ from typer.testing import CliRunner
 from partpick.catalog.store import dispose_engines
 
 CATALOG_DATA = Path(__file__).parent / "data" / "catalog"
+BUNDLED_CATALOGS = Path(__file__).parents[1] / "catalogs"
 
 
 @pytest.fixture(autouse=True)

@@ -160,16 +160,15 @@ def _map_table(name: str, data: dict, key: str, types: type | tuple[type, ...]) 
 def check_map_for_kind(map_file: MapFile, kind: str) -> None:
     """Check that every field the map names exists for ``kind`` and every unit fits its field."""
     known = {f.name: f for f in fields_of(kind)}
+    kind = ("an " if kind[0] in "aeiou" else "a ") + kind
     for header, target in map_file.columns.items():
         if target != IGNORE and target not in known:
             raise MapFileError(
-                map_file.path, f"{target!r} is not a field of a {kind}", f"columns.{header}"
+                map_file.path, f"{target!r} is not a field of {kind}", f"columns.{header}"
             )
     for name, unit_text in map_file.units.items():
         if name not in known:
-            raise MapFileError(
-                map_file.path, f"{name!r} is not a field of a {kind}", f"units.{name}"
-            )
+            raise MapFileError(map_file.path, f"{name!r} is not a field of {kind}", f"units.{name}")
         _unit_scale(
             known[name],
             unit_text,
@@ -178,7 +177,7 @@ def check_map_for_kind(map_file: MapFile, kind: str) -> None:
     for name in map_file.constants:
         if name not in known:
             raise MapFileError(
-                map_file.path, f"{name!r} is not a field of a {kind}", f"constants.{name}"
+                map_file.path, f"{name!r} is not a field of {kind}", f"constants.{name}"
             )
 
 
@@ -240,16 +239,18 @@ def _match_one(header: str, index: dict) -> tuple[Field, str, tuple[str, ...]] |
     """Try the whole header, then without its units, then without any bracket or qualifier."""
     words, unit_texts = split_header_units(header)
     bare = re.sub(r"[\(\[\{][^\)\]\}]*[\)\]\}]", " ", words)
-    whole = fold_text(header)
-    # A unit that folds away entirely ("Tolerance (%)") still applies to the whole header.
-    candidates = [(whole, unit_texts if whole == fold_text(words) else ())]
-    candidates.append((fold_text(words), unit_texts))
-    candidates.append((fold_text(bare), unit_texts))
-    candidates.append((_QUALIFIER_TAIL_RE.sub("", fold_text(bare)), unit_texts))
-    for key, units in candidates:
+    # Units found in the header apply whichever form matched: "Tolerance (%)" folds to a
+    # plain "tolerance", and a synonym such as "L (mm)" carries its own (fitting) unit.
+    candidates = (
+        fold_text(header),
+        fold_text(words),
+        fold_text(bare),
+        _QUALIFIER_TAIL_RE.sub("", fold_text(bare)),
+    )
+    for key in candidates:
         if key and key in index:
             f, via = index[key]
-            return f, via, units
+            return f, via, unit_texts
     return None
 
 
