@@ -23,6 +23,23 @@ for _module in (catalog, design, selection, bom, verify):
     _module.register(app)
 
 
+def _show_version(value: bool) -> None:
+    if value:
+        from partpick import __version__
+
+        typer.echo(f"partpick {__version__}")
+        raise typer.Exit()
+
+
+@app.callback()
+def _root(
+    version: bool = typer.Option(
+        False, "--version", callback=_show_version, is_eager=True, help="Show the version."
+    ),
+) -> None:
+    """Check catalog parts against a DC-DC boost design and shortlist a bill of materials."""
+
+
 def main() -> None:
     """Entry point of the ``partpick`` console script."""
     app()
