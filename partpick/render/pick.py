@@ -49,6 +49,13 @@ def _q(value: float | None, unit: str) -> str:
     return format_eng(value, unit)
 
 
+def _pct(value: float | None) -> str:
+    """Return a fraction as whole percent with the SI space, e.g. ``"80 %"``."""
+    if value is None or not math.isfinite(value):
+        return "—"
+    return f"{value * 100:.0f} %"
+
+
 def _at(check: Check) -> str:
     return f" at {_q(check.worst_vin_v, 'V')} in" if check.worst_vin_v is not None else ""
 
@@ -74,12 +81,11 @@ def _use_sentence(check: Check) -> str:
         needed = check.stress / use if check.stress is not None else None
         return (
             f"{check.rule}: needs {label} ≥ {_q(needed, unit)} ({_q(check.stress, unit)} "
-            f"{what}{_at(check)}, {use:.0%} use); part has {_q(check.rating, unit)}"
+            f"{what}{_at(check)}, {_pct(use)} use); part has {_q(check.rating, unit)}"
         )
-    used = check.utilisation if check.utilisation is not None else math.nan
     return (
         f"{check.rule}: {label} {_q(check.rating, unit)} vs {_q(check.stress, unit)} {what}"
-        f"{_at(check)}: {used:.0%} use, limit {use:.0%}"
+        f"{_at(check)}: {_pct(check.utilisation)} use, limit {_pct(use)}"
     )
 
 
@@ -109,7 +115,7 @@ def _ripple_voltage(check: Check, count: int) -> str:
 
 
 def _thermal(check: Check, count: int) -> str:
-    rise = f"{check.utilisation:.0%} of the allowed rise" if check.utilisation is not None else ""
+    rise = f"{_pct(check.utilisation)} of the allowed rise"
     verdict = "above" if check.status == "fail" else "within"
     return (
         f"thermal: estimated Tj {_q(check.stress, 'degC')}{_at(check)}, {verdict} the "
@@ -168,7 +174,7 @@ def margin_text(outcome: Outcome) -> str:
     tight = tightest_check(outcome.checks)
     if tight is None:
         return "—"
-    return f"{tight.rule} {check_load(tight):.0%} of limit"
+    return f"{tight.rule} {_pct(check_load(tight))} of limit"
 
 
 # --- JSON ------------------------------------------------------------------------------------
@@ -350,7 +356,7 @@ def profile_table(profile, role: str) -> Table:
 
 def _figure_text(value: float, unit: str) -> str:
     if unit == "fraction":
-        return f"{value:.0%}"
+        return _pct(value)
     if unit == "count":
         return f"{value:g}"
     return _q(value, unit)

@@ -23,6 +23,7 @@ RANKS: tuple[str, ...] = ("loss", "cost", "size")
 # catalog fields read for every role besides the rule fields: identity, price and footprint
 _COMMON_FIELDS: tuple[str, ...] = ("mpn", "manufacturer", "unit_price", "length_mm", "width_mm")
 _PASSED, _UNVERIFIED, _FAILED = 0, 1, 2
+_RULE_WEIGHT = 1e6
 
 
 @dataclass(frozen=True)
@@ -265,15 +266,11 @@ def closest_failures(screen: Screen, indices: np.ndarray, top: int | None) -> np
     failing = codes == FAIL
     n_failing = failing.sum(axis=0).astype(float)
     worst = np.where(failing, np.nan_to_num(loads, nan=np.inf), -np.inf).max(axis=0)
-    full = np.zeros(screen.size)
-    keys = (_scatter(full, indices, n_failing), _scatter(full, indices, worst))
-    return ranked(indices, keys, screen.columns["mpn"], top)
-
-
-def _scatter(template: np.ndarray, indices: np.ndarray, values: np.ndarray) -> np.ndarray:
-    out = template.copy()
-    out[indices] = values
-    return out
+    # one key, so that top-N needs a single partition: the failing-rule count dominates and
+    # the overshoot (capped well above any real one) orders within it
+    closeness = np.zeros(screen.size)
+    closeness[indices] = n_failing * _RULE_WEIGHT + np.minimum(worst, _RULE_WEIGHT / 2)
+    return ranked(indices, (closeness,), screen.columns["mpn"], top)
 
 
 def outcome_at(screen: Screen, i: int, code: int) -> Outcome:
