@@ -11,6 +11,7 @@ import typer
 from partpick.cli.common import DbOption, friendly_errors
 from partpick.cli.spec_options import with_spec_options
 from partpick.design.spec import Spec
+from partpick.errors import ParameterError, UnitError
 from partpick.render.console import make_console
 from partpick.render.exports import json_text
 from partpick.units import parse_quantity
@@ -51,6 +52,14 @@ def _override(flag: str, example: str, what: str):
 
 _EXAMPLES = {p.option: p.example for p in PARAMETERS}
 _OVERRIDE_FIELDS = {p.option: (p.field, p.unit) for p in PARAMETERS}
+
+
+def _quantity(text: str, unit: str, option: str) -> float:
+    """Return ``text`` parsed in ``unit``; a bad value is an error naming ``option``."""
+    try:
+        return parse_quantity(text, unit)
+    except UnitError as exc:
+        raise ParameterError(option, f"cannot be read: {exc}") from None
 
 
 def register(app: typer.Typer) -> None:
@@ -158,7 +167,7 @@ def verify_command(
         "--qrr": qrr,
     }
     overrides = {
-        _OVERRIDE_FIELDS[flag][0]: parse_quantity(text, _OVERRIDE_FIELDS[flag][1])
+        _OVERRIDE_FIELDS[flag][0]: _quantity(text, _OVERRIDE_FIELDS[flag][1], flag)
         for flag, text in given.items()
         if text is not None
     }
@@ -173,9 +182,9 @@ def verify_command(
         output_count=output_count,
         profile_name=profile,
         overrides=overrides,
-        extra_vin_v=[parse_quantity(v, "V") for v in vin or ()],
-        extra_iout_a=[parse_quantity(i, "A") for i in load or ()],
-        duty=parse_quantity(duty, "fraction") if duty is not None else None,
+        extra_vin_v=[_quantity(v, "V", "--vin") for v in vin or ()],
+        extra_iout_a=[_quantity(i, "A", "--load") for i in load or ()],
+        duty=_quantity(duty, "fraction", "--duty") if duty is not None else None,
     )
     if plot is not None:
         from partpick.verify.plot import save_plot  # matplotlib only when a plot is asked for

@@ -1,0 +1,200 @@
+"""Building the verified stage from catalog fields, and the verification's points and warnings.
+
+Part numbers and manufacturers are invented.
+"""
+
+from __future__ import annotations
+
+import numpy as np
+import pytest
+
+from partpick.design.spec import Spec
+from partpick.errors import ParameterError
+from partpick.screening.profiles import load_profile
+from partpick.verify.stage import effective_capacitance_f, stage_from_parts
+from partpick.verify.sweep import (
+    OperatingPoint,
+    default_points,
+    verify_design,
+    verify_parts,
+    waveforms,
+)
+
+SPEC = Spec(
+    vin_min_v=6.0,
+    vin_max_v=8.4,
+    vout_v=24.0,
+    iout_a=0.8,
+    fsw_hz=400e3,
+    vout_ripple_v=0.12,
+    iout_min_a=0.05,
+)
+
+
+def parts(**changes: dict) -> dict[str, dict[str, object]]:
+    chosen = {
+        "inductor": {"mpn": "QM-150-1265", "inductance_h": 15e-6, "dcr_ohm": 0.018},
+        "output-cap": {
+            "mpn": "BRV-106-X7R-50",
+            "capacitance_f": 10e-6,
+            "tolerance": 0.1,
+            "dielectric": "x7r",
+            "esr_ohm": 0.004,
+        },
+        "diode": {"mpn": "SLV-SB340", "diode_type": "schottky", "vf_v": 0.47, "qrr_c": None},
+        "switch": {"mpn": "NTR-N40-07", "rds_on_ohm": 0.007, "qgd_c": 2.5e-9, "coss_f": 200e-12},
+    }
+    for role, fields in changes.items():
+        chosen[role.replace("_", "-")] = {**chosen[role.replace("_", "-")], **fields}
+    return chosen
+
+
+def build(chosen=None, **kwargs):
+    options = {"hot_factor": 1.5, "output_count": 3, **kwargs}
+    return stage_from_parts(SPEC, chosen or parts(), **options)
+
+
+@pytest.mark.parametrize(
+    ("capacitance_f", "tolerance", "dielectric", "expected_f"),
+    [
+        # issue 4 standard profile (common practice, from memory): C × (1 − tol) × kept
+        (10e-6, 0.1, "x7r", 10e-6 * 0.9 * 0.6),  # 5.4 µF
+        (10e-6, None, "x5r", 10e-6 * 0.8 * 0.6),  # missing tolerance taken as 0.2: 4.8 µF
+        (1e-6, 0.2, "y5v", 1e-6 * 0.8 * 0.3),  # 0.24 µF
+        (47e-6, 0.2, "al-polymer", 47e-6 * 0.8),  # keeps all: 37.6 µF
+        (100e-9, 0.05, "c0g", 95e-9),
+    ],
+)
+def test_effective_capacitance(capacitance_f, tolerance, dielectric, expected_f):
+    assert effective_capacitance_f(capacitance_f, tolerance, dielectric) == pytest.approx(
+        expected_f
+    )
+    # the standard profile file holds the same figures
+    profile = load_profile("standard")
+    assert effective_capacitance_f(capacitance_f, tolerance, dielectric, profile) == pytest.approx(
+        expected_f
+    )
+
+
+def test_stage_takes_every_figure_from_the_parts():
+    stage = build()
+    assert stage.inductance_h == 15e-6
+    assert stage.dcr_ohm == 0.018
+    assert stage.rds_on_ohm == 0.007 and stage.hot_factor == 1.5
+    assert stage.rds_on_hot_ohm == pytest.approx(0.0105)  # 7 mΩ × 1.5
+    assert stage.cout_f == pytest.approx(5.4e-6) and stage.output_count == 3
+    assert stage.fsw_hz == 400e3 and stage.gate_drive_a == 1.0
+    # a Schottky has no stored charge: a missing Qrr is 0, with a note saying so
+    assert stage.qrr_c == 0.0
+    assert any("SLV-SB340" in note for note in stage.notes)
+
+
+@pytest.mark.parametrize(
+    ("role", "field", "option", "attribute", "value", "expected"),
+    [
+        ("inductor", "dcr_ohm", "--dcr", "dcr_ohm", 0.045, 0.045),
+        ("inductor", "inductance_h", "--inductance", "inductance_h", 10e-6, 10e-6),
+        ("output_cap", "esr_ohm", "--esr", "esr_ohm", 0.01, 0.01),
+        # 22 µF X7R at 10 %: 22·0.9·0.6 = 11.88 µF effective (issue 4, common practice)
+        ("output_cap", "capacitance_f", "--capacitance", "cout_f", 22e-6, 11.88e-6),
+        ("diode", "vf_v", "--vf", "diode_vf_v", 0.5, 0.5),
+        ("switch", "rds_on_ohm", "--rds-on", "rds_on_ohm", 0.02, 0.02),
+        ("switch", "qgd_c", "--qgd", "qgd_c", 3e-9, 3e-9),
+        ("switch", "coss_f", "--coss", "coss_f", 150e-12, 150e-12),
+    ],
+)
+def test_missing_parasitic_names_field_part_and_option(
+    role, field, option, attribute, value, expected
+):
+    chosen = parts(**{role: {field: float("nan")}})
+    with pytest.raises(ParameterError) as caught:
+        build(chosen)
+    error = caught.value
+    assert error.field == field
+    assert error.part == chosen[role.replace("_", "-")]["mpn"]
+    assert option in str(error) and field in str(error)
+    # the override fills the gap
+    stage = build(chosen, overrides={field: value})
+    assert getattr(stage, attribute) == pytest.approx(expected)
+
+
+def test_missing_recovery_charge_of_a_fast_diode_is_an_error():
+    with pytest.raises(ParameterError, match="qrr_c"):
+        build(parts(diode={"diode_type": "fast"}))
+
+
+def test_overrides_win_over_the_catalog():
+    stage = build(overrides={"dcr_ohm": 0.045, "esr_ohm": 0.01})
+    assert stage.dcr_ohm == 0.045 and stage.esr_ohm == 0.01
+
+
+def test_unknown_override_is_refused():
+    with pytest.raises(ParameterError, match="isat_a"):
+        build(overrides={"isat_a": 5.0})
+
+
+# ---------------------------------------------------------------- points and warnings
+
+
+def test_default_points():
+    points = default_points(SPEC, extra_vin_v=[7.0], extra_iout_a=[0.4, 0.8])
+    vins = sorted({p.vin_v for p in points})
+    loads = sorted({p.iout_a for p in points})
+    assert vins == [6.0, 7.0, 7.2, 8.4]
+    assert loads == [0.05, 0.4, 0.8]
+    assert len(points) == 12
+
+
+@pytest.mark.parametrize(
+    ("changes", "kwargs", "code"),
+    [
+        # one 10 µF X7R part: charge ripple ≈ 0.8·0.76/(400 kHz·5.4 µF) = 0.28 V > 0.12 V
+        ({}, {"output_count": 1}, "ripple-above-limit"),
+        # 1 µH at full load: K = 2·1 µH·400 kHz/30 Ω = 0.027 < Kcrit(0.76) = 0.044 → DCM
+        ({"inductor": {"inductance_h": 1e-6}}, {}, "dcm-where-ccm-assumed"),
+        # 0.5 Ω of DCR caps the boost ratio below 4 (Erickson & Maksimovic ch. 3)
+        ({"inductor": {"dcr_ohm": 0.5}}, {}, "vout-unreachable"),
+    ],
+)
+def test_warnings(changes, kwargs, code):
+    stage = build(parts(**changes), **kwargs)
+    result = verify_design(SPEC, stage)
+    assert code in {w.code for w in result.warnings}
+
+
+def test_high_duty_warning():
+    # 2 V to 24 V needs D ≥ 1 − 2/24 = 0.92 even without losses ([EM] ch. 2)
+    result = verify_design(SPEC, build(), [OperatingPoint(2.0, 0.2)])
+    codes = {w.code for w in result.warnings}
+    assert "high-duty" in codes
+
+
+def test_efficiency_far_from_the_estimate_is_flagged_at_full_load_only():
+    result = verify_design(SPEC, build(), efficiency_estimate=0.6)
+    flagged = [w for w in result.warnings if w.code == "efficiency-off-estimate"]
+    assert flagged and all(w.iout_a == SPEC.iout_a for w in flagged)
+    quiet = verify_design(SPEC, build(), efficiency_estimate=result.points[0].state.efficiency)
+    assert "efficiency-off-estimate" not in {
+        w.code for w in quiet.warnings if w.vin_v == result.points[0].point.vin_v
+    }
+
+
+def test_verify_parts_for_the_bom():
+    result = verify_parts(SPEC, parts(), hot_factor=1.5, output_count=3)
+    assert [(p.point.vin_v, p.point.iout_a) for p in result.points] == [(6.0, 0.8), (8.4, 0.8)]
+    assert all(p.state.regulated for p in result.points)
+    assert result.to_dict()["points"][0]["vout_avg_v"] == pytest.approx(24.0, rel=1e-6)
+
+
+def test_waveforms_repeat_every_period_and_agree_with_the_figures():
+    result = verify_design(SPEC, build(), [OperatingPoint(6.0, 0.8)])
+    state = result.points[0].state
+    wave = waveforms(state, periods=2, samples=200)
+    period = 1.0 / SPEC.fsw_hz
+    assert wave.time_s[0] == 0.0 and wave.time_s[-1] == pytest.approx(2 * period)
+    assert np.all(np.diff(wave.time_s) >= 0.0)
+    half = wave.time_s.size // 2
+    assert np.allclose(wave.il_a[:half], wave.il_a[half:], rtol=1e-9, atol=1e-9)
+    assert wave.il_a.max() == pytest.approx(state.il_max_a, rel=1e-6)
+    assert wave.il_a.min() == pytest.approx(state.il_min_a, rel=1e-6)
+    assert wave.vout_v.max() - wave.vout_v.min() == pytest.approx(state.vout_ripple_v, rel=1e-3)
