@@ -329,8 +329,14 @@ def format_eng(value: float | None, unit: str, digits: int = 3) -> str:
     symbol = _SYMBOLS.get(unit, unit)
     if unit == "fraction":
         return f"{value * 100:.{digits}g} %"
+    if unit == "count":
+        return f"{value:.0f}"
+    if unit == "currency":  # the catalog's own currency, which it does not name
+        return f"{value:.2f}" if abs(value) >= 0.995 else f"{value:.{digits}g}"
     if unit in _NO_PREFIX or value == 0:
-        return f"{value:.{digits}g} {symbol}".strip()
+        # no exponent for whole numbers too long for ``digits`` (a 10000 h life, say)
+        text = f"{value:.0f}" if abs(value) >= 10**digits else f"{value:.{digits}g}"
+        return f"{text} {symbol}".strip()
     magnitude = abs(value)
     for factor, prefix in _ENG_PREFIXES:  # noqa: B007 - prefix is used after the loop
         if magnitude >= factor * 0.9995:

@@ -10,6 +10,7 @@ from collections.abc import Callable, Iterator, Sequence
 from contextlib import contextmanager
 from pathlib import Path
 
+from rich import box
 from rich.console import Console
 from rich.markup import escape
 from rich.progress import BarColumn, DownloadColumn, Progress, TextColumn, TimeRemainingColumn
@@ -17,7 +18,7 @@ from rich.table import Table
 
 from partpick.catalog.importer import ImportProgress, ImportReport, Reject
 from partpick.catalog.store import Batch
-from partpick.fields import Field, fields_of
+from partpick.fields import KIND_FIELDS, Field, fields_of
 from partpick.render.console import STYLE_FAIL, STYLE_HEADING, STYLE_MUTED, STYLE_UNVERIFIED
 from partpick.units import format_eng
 
@@ -25,9 +26,6 @@ REJECT_COLUMNS = ("line", "column", "value", "reason")
 # OWASP "CSV Injection": a cell starting with one of these may run as a spreadsheet formula.
 _FORMULA_LEADS = ("=", "+", "-", "@", "\t", "\r")
 _PROGRESS_MIN_BYTES = 1 << 20
-# The terminal table leaves out long text and folds the three body sizes into one column.
-_TABLE_SKIPS = frozenset({"description", "length_mm", "width_mm", "height_mm"})
-_SIZE_FIELDS = ("length_mm", "width_mm", "height_mm")
 
 
 def neutralise_cell(text: str) -> str:
@@ -157,47 +155,83 @@ def _cell(value: object, f: Field) -> str:
         return "—"
     if f.type == "bool":
         return "yes" if value else "no"
-    if f.type == "float":
+    if f.type in ("float", "int"):
         return format_eng(float(value), f.unit)
     return str(value)
 
 
-def _size_cell(part: dict[str, object]) -> str:
-    sizes = [part.get(name) for name in _SIZE_FIELDS]
-    if all(v is None for v in sizes):
-        return "—"
-    return "×".join("?" if v is None else f"{float(v):g}" for v in sizes) + " mm"
+_UNIT_SUFFIXES = ("_degc_w", "_degc", "_ohm", "_hz", "_mm", "_h", "_f", "_a", "_v", "_s", "_c")
+_LABELS = {"unit_price": "price", "diode_type": "type", "dielectric": "dielectric"}
+
+
+def column_label(name: str) -> str:
+    """Return a short table heading for a field: its name without the unit suffix."""
+    if name in _LABELS:
+        return _LABELS[name]
+    for suffix in _UNIT_SUFFIXES:
+        if name.endswith(suffix):
+            return name[: -len(suffix)]
+    return name
+
+
+def table_fields(kind: str) -> list[Field]:
+    """Return the value fields a terminal table shows: the kind's own fields, price, stock.
+
+    Fields several kinds share (tolerance, sizes, thermal data) are left to the CSV and JSON
+    formats, which carry every field, so the table fits a 100-column terminal.
+    """
+    shared = {f.name for k, fs in KIND_FIELDS.items() if k != kind for f in fs}
+    own = [f for f in KIND_FIELDS[kind] if f.name not in shared]
+    common = {f.name: f for f in fields_of(kind)}
+    return [*own, common["unit_price"], common["stock"]]
 
 
 def render_parts_table(console: Console, kind: str, parts: Sequence[dict[str, object]]) -> None:
-    """Print the parts as a table with engineering units (sizes as L×W×H)."""
-    fields = [f for f in fields_of(kind) if f.name not in _TABLE_SKIPS]
-    has_size = any(f.name in _SIZE_FIELDS for f in fields_of(kind))
-    table = Table(title=f"{len(parts)} {kind} part(s)", title_style=STYLE_HEADING)
+    """Print the parts as a table with engineering units, the maker under each part number."""
+    fields = table_fields(kind)
+    table = Table(
+        title=f"{len(parts)} {kind} part(s)",
+        title_style=STYLE_HEADING,
+        box=box.SIMPLE_HEAD,
+        padding=(0, 1),
+        pad_edge=False,
+        caption="every field: --format csv or --format json" if parts else None,
+        caption_style=STYLE_MUTED,
+    )
+    table.add_column("part number / maker", no_wrap=True)
     for f in fields:
-        table.add_column(f.name, justify="right" if f.type in ("float", "int") else "left")
-    if has_size:
-        table.add_column("size", justify="right")
+        numeric = f.type in ("float", "int")
+        table.add_column(column_label(f.name), justify="right" if numeric else "left")
     for part in parts:
-        cells = [escape(_cell(part.get(f.name), f)) for f in fields]
-        table.add_row(*cells, *([_size_cell(part)] if has_size else []))
+        maker = part.get("manufacturer") or "—"
+        name = f"{escape(str(part['mpn']))}\n[{STYLE_MUTED}]{escape(str(maker))}[/]"
+        table.add_row(name, *(escape(_cell(part.get(f.name), f)) for f in fields))
     console.print(table)
 
 
 def render_batches(console: Console, batches: Sequence[Batch]) -> None:
-    """Print the import batches, oldest first."""
+    """Print the import batches, oldest first (file names; the full path is in the database)."""
     if not batches:
         console.print(
             "No import batches yet; load a catalog with partpick import FILE --kind KIND."
         )
         return
-    table = Table(title="Import batches", title_style=STYLE_HEADING)
-    names = ("id", "imported_at", "kind", "file", "sha256", "rows", "added", "updated",
-             "unchanged", "rejected")  # fmt: skip
-    for name in names:
-        table.add_column(name, justify="right" if name in ("id", "rows", "added", "updated",
-                         "unchanged", "rejected") else "left")  # fmt: skip
+    table = Table(
+        title="Import batches",
+        title_style=STYLE_HEADING,
+        box=box.SIMPLE_HEAD,
+        pad_edge=False,
+        caption="counts: added/updated/unchanged/rejected rows",
+        caption_style=STYLE_MUTED,
+    )
+    table.add_column("id", justify="right", no_wrap=True)
+    table.add_column("imported (UTC)", no_wrap=True)
+    table.add_column("kind", no_wrap=True, min_width=9)
+    table.add_column("file", overflow="fold", min_width=12)
+    table.add_column("sha256", no_wrap=True)
+    table.add_column("counts", justify="right", no_wrap=True)
     for b in batches:
-        table.add_row(str(b.id), b.imported_at, b.kind, escape(b.file), b.sha256[:12], str(b.rows),
-                      str(b.added), str(b.updated), str(b.unchanged), str(b.rejected))  # fmt: skip
+        when = b.imported_at.replace("T", " ")[:16]
+        counts = "/".join(map(str, (b.added, b.updated, b.unchanged, b.rejected)))
+        table.add_row(str(b.id), when, b.kind, escape(Path(b.file).name), b.sha256[:10], counts)
     console.print(table)
