@@ -53,9 +53,13 @@ def parse_condition(text: str, kind: str) -> Condition:
     if match is None:
         raise QueryError(text, "expected FIELD OP VALUE, such as isat_a>=3A or dielectric=x7r")
     name, op, raw = match.groups()
+    if not raw:
+        raise QueryError(text, f"no value after {op!r}")
     fields = {f.name: f for f in fields_of(kind)}
     if name not in fields:
-        raise QueryError(text, f"{name!r} is not a field of a {kind}; fields: {', '.join(fields)}")
+        article = "an" if kind[0] in "aeiou" else "a"
+        listed = ", ".join(fields)
+        raise QueryError(text, f"{name!r} is not a field of {article} {kind}; fields: {listed}")
     f = fields[name]
     if is_missing(raw):
         if op not in ("=", "==", "!="):
