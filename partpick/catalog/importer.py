@@ -20,7 +20,7 @@ from partpick.catalog import merge
 from partpick.catalog.headers import ColumnMatch, MapFile, check_map_for_kind, load_map
 from partpick.catalog.reading import WHOLE_ROW, PreparedFile, Reject, prepare_file, read_chunks
 from partpick.catalog.schema import import_batches
-from partpick.catalog.store import bump_generation, open_engine, resolve_db_url
+from partpick.catalog.store import bump_generation, open_engine, resolve_db_url, sqlite_file
 from partpick.errors import CatalogFormatError, NotFoundError, StrictImportError
 from partpick.fields import KINDS
 
@@ -184,7 +184,10 @@ def _refresh_snapshot(db: str | None, kind: str) -> None:
     """Rewrite the columnar snapshot of ``kind`` after the commit; a stale one is rebuilt later."""
     from partpick.catalog import columns
 
+    url = resolve_db_url(db)
+    if sqlite_file(url) is None:
+        return  # in-memory and server catalogs are read through SQL
     try:
-        columns.write_snapshot(resolve_db_url(db), kind)
+        columns.write_snapshot(url, kind)
     except OSError:
         pass  # the generation moved on, so the next read_columns rebuilds it

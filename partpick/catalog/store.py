@@ -55,8 +55,13 @@ def _new_engine(url: str) -> sa.Engine:
     path = sqlite_file(url)
     if path is not None and not path.parent.is_dir():
         raise DatabaseError(url, f"the folder {path.parent} does not exist")
+    options: dict = {}
+    if path is None and url.startswith("sqlite"):
+        # an in-memory catalog lives as long as its one connection: keep exactly one
+        options = {"poolclass": sa.pool.StaticPool,
+                   "connect_args": {"check_same_thread": False}}  # fmt: skip
     try:
-        engine = sa.create_engine(url)
+        engine = sa.create_engine(url, **options)
     except (sa.exc.ArgumentError, sa.exc.NoSuchModuleError, ImportError) as exc:
         raise DatabaseError(url, f"not a usable database URL ({exc})") from None
     if engine.dialect.name == "sqlite":
