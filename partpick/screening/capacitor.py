@@ -60,10 +60,23 @@ _KELVIN = 273.15
 
 def dielectric_figure(dielectric: np.ndarray, table: dict[str, float], unknown: float):
     """Return the profile figure of each part's dielectric (``unknown`` where None or unlisted)."""
-    values = np.full(dielectric.shape[0], unknown, dtype=float)
-    for code, value in table.items():
-        values[dielectric == code] = value
-    return values
+    codes = tuple(table)
+    index = dielectric_index(dielectric, codes)
+    lookup = np.array([table[c] for c in codes] + [unknown], dtype=float)
+    return lookup[index]
+
+
+def dielectric_index(dielectric: np.ndarray, codes: tuple[str, ...]) -> np.ndarray:
+    """Return each part's position in ``codes``, or len(codes) where None or not listed.
+
+    The object array is turned into fixed-width text once (None becomes "None", which is no
+    dielectric code), so each comparison runs in C rather than per Python object.
+    """
+    text = np.asarray(dielectric, dtype=object).astype("U16")
+    index = np.full(text.shape[0], len(codes), dtype=np.intp)
+    for i, code in enumerate(codes):
+        index[text == code] = i
+    return index
 
 
 def effective_capacitance_f(capacitance_f, tolerance, kept_fraction, tolerance_default: float):

@@ -121,9 +121,13 @@ def _scalar(value: float) -> float | None:
 
 
 def _full(n: int, value: float | np.ndarray | None) -> np.ndarray:
+    """Return ``value`` as a float array of ``n`` parts (no copy when it already is one)."""
     if value is None:
         return np.full(n, np.nan)
-    return np.broadcast_to(np.asarray(value, dtype=float), (n,)).astype(float, copy=True)
+    array = np.asarray(value, dtype=float)
+    if array.shape == (n,):
+        return array
+    return np.broadcast_to(array, (n,)).copy()
 
 
 def missing_masks(columns: dict[str, np.ndarray], names: tuple[str, ...]):
