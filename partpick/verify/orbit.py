@@ -210,40 +210,66 @@ def _dcm_state(circuit: Circuit, on_map: np.ndarray, t_zero: float, t_idle: floa
     return vc0, float(through[0, 1] * vc0 + through[0, 2])
 
 
-def orbit(circuit: Circuit, duty: float) -> Orbit:
-    """Return the periodic steady state at ``duty``, in CCM or, where iL would reverse, DCM."""
+def orbit(circuit: Circuit, duty: float, zero_hint_s: float | None = None) -> Orbit:
+    """Return the periodic steady state at ``duty``, in CCM or, where iL would reverse, DCM.
+
+    ``zero_hint_s`` is an estimate of the zero-current instant (from a nearby duty) that
+    lets the DCM search start from a tight bracket.
+    """
     period = circuit.period_s
     t_on, t_off = duty * period, (1.0 - duty) * period
     on, off = _interval(circuit, "on", t_on), _interval(circuit, "off", t_off)
     z0 = _periodic_start(on[2], off[2])
     if z0[0] >= 0.0:
         return Orbit(circuit, duty, MODE_CCM, _plan_segments([on, off], z0))
-    t_zero = _zero_current_time(circuit, on[2], t_on, t_off)
-    vc0, _ = _dcm_state(circuit, on[2], t_zero, t_off - t_zero)
-    plan = [on, _interval(circuit, "off", t_zero), _interval(circuit, "idle", t_off - t_zero)]
+    t_zero, vc0 = _zero_current_time(circuit, on[2], t_on, t_off, zero_hint_s)
+    plan = [on, _interval(circuit, "off", t_zero), _idle_interval(circuit, t_off - t_zero)]
     return Orbit(circuit, duty, MODE_DCM, _plan_segments(plan, np.array([0.0, vc0, 1.0])))
 
 
-def _zero_current_time(circuit: Circuit, on_map: np.ndarray, t_on: float, t_off: float) -> float:
-    """Return the instant in the off interval at which iL reaches zero (DCM), in s.
+def _idle_interval(circuit: Circuit, duration: float):
+    """Return the idle interval's (name, t, e^{F t}, ∫ e^{F s} ds) in closed form.
+
+    Its system is diagonal, diag(0, a, 0) with a = −1/(R_p C), so e^{F t} = diag(1, e^{a t}, 1)
+    and the integral is diag(t, (e^{a t} − 1)/a, t).
+    """
+    rate = circuit.systems["idle"][1, 1]
+    decay = math.exp(rate * duration)
+    exp = np.diag([1.0, decay, 1.0])
+    integral = np.diag([duration, (decay - 1.0) / rate, duration])
+    return "idle", duration, exp, integral
+
+
+def _zero_current_time(
+    circuit: Circuit, on_map: np.ndarray, t_on: float, t_off: float, hint_s: float | None
+) -> tuple[float, float]:
+    """Return (instant in the off interval at which iL reaches zero in s, periodic vC(0) in V).
 
     Brent's method on the end-of-interval current of the periodic DCM orbit. The bracket is
-    first tried tight around a straight-line estimate, then widened to the whole off interval.
+    first tried tight around the hint (1 %) or a straight-line estimate (10 %), then widened
+    to the whole off interval.
     """
+    states: dict[float, tuple[float, float]] = {}
 
-    @_memoised
     def end_current(t_zero: float) -> float:
-        return _dcm_state(circuit, on_map, t_zero, t_off - t_zero)[1]
+        if t_zero not in states:
+            states[t_zero] = _dcm_state(circuit, on_map, t_zero, t_off - t_zero)
+        return states[t_zero][1]
 
     floor = t_off * 1e-9
-    estimate = _zero_current_estimate(circuit, on_map[0, 2], t_on)
-    if estimate is not None and estimate * 1.1 < t_off:
-        low, high = max(estimate * 0.9, floor), estimate * 1.1
+    guesses = [(hint_s, 0.01), (_zero_current_estimate(circuit, on_map[0, 2], t_on), 0.1)]
+    for centre, spread in guesses:
+        if centre is None or not floor < centre * (1.0 + spread) < t_off:
+            continue
+        low, high = max(centre * (1.0 - spread), floor), centre * (1.0 + spread)
         if end_current(low) > 0.0 > end_current(high):
-            return _brent_time(end_current, low, high, circuit.period_s)
+            t_zero = _brent_time(end_current, low, high, circuit.period_s)
+            return t_zero, states[t_zero][0]
     if end_current(t_off) >= 0.0:  # at the CCM/DCM boundary to numerical precision
-        return t_off
-    return _brent_time(end_current, floor, t_off, circuit.period_s)
+        return t_off, states[t_off][0]
+    t_zero = _brent_time(end_current, floor, t_off, circuit.period_s)
+    end_current(t_zero)
+    return t_zero, states[t_zero][0]
 
 
 def _brent_time(function, low: float, high: float, period_s: float) -> float:
@@ -309,10 +335,15 @@ def regulated_orbit(circuit: Circuit, vout_v: float) -> tuple[Orbit, bool]:
     """
 
     solved: dict[float, Orbit] = {}
+    last_zero: list[tuple[float, float]] = []  # (duty, zero-current instant) of DCM orbits
 
     def error(duty: float) -> float:
         if duty not in solved:
-            solved[duty] = orbit(circuit, duty)
+            # the zero-current instant scales about with the duty (i₁ ∝ D), so scale the last
+            hint = last_zero[-1][1] * duty / last_zero[-1][0] if last_zero else None
+            solved[duty] = orbit(circuit, duty, hint)
+            if solved[duty].mode == MODE_DCM:
+                last_zero.append((duty, solved[duty].segments[1].duration_s))
         return solved[duty].vout_average_v() - vout_v
 
     bracket = _bracket_duty(error, _first_duty_guess(circuit, vout_v))

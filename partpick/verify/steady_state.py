@@ -22,6 +22,7 @@ import numpy as np
 from scipy.optimize import brentq
 
 from partpick import losses
+from partpick.verify.blas import single_blas_thread
 from partpick.verify.orbit import (
     MODE_CCM,
     Circuit,
@@ -120,13 +121,14 @@ def steady_state(
     """
     if (vout_v is None) == (duty is None):
         raise ValueError("give exactly one of vout_v (regulated) or duty (open loop)")
+    if duty is not None and not 0.0 < duty < 1.0:
+        raise ValueError(f"duty must lie in (0, 1), got {duty!r}")
     circuit = boost_circuit(stage, vin_v, load_ohm)
-    if duty is not None:
-        if not 0.0 < duty < 1.0:
-            raise ValueError(f"duty must lie in (0, 1), got {duty!r}")
-        return analyse_orbit(orbit(circuit, float(duty)), regulated=False)
-    solved, reached = regulated_orbit(circuit, float(vout_v))
-    return analyse_orbit(solved, regulated=reached)
+    with single_blas_thread():
+        if duty is not None:
+            return analyse_orbit(orbit(circuit, float(duty)), regulated=False)
+        solved, reached = regulated_orbit(circuit, float(vout_v))
+        return analyse_orbit(solved, regulated=reached)
 
 
 def analyse_orbit(solved: Orbit, *, regulated: bool) -> SteadyState:
