@@ -187,3 +187,19 @@ def test_unknown_role(catalog, spec):
 def test_empty_kind(catalog, spec):
     result = pick(catalog, spec, "diode", profile=load_profile("standard"))
     assert (result.total, result.passed, result.failed) == (0, [], [])
+
+
+def test_input_cap_with_vin_ripple(catalog):
+    # vin_ripple 20 mV: ΔIL/(8·fsw·n·C_eff) + (ESR/n)·ΔIL with ΔIL = 1.2 A, fsw = 200 kHz
+    #   Y C_eff 37.6 µF, 10 mΩ: n=1 19.95 + 12 = 31.9 mV; n=2 9.97 + 6 = 16.0 mV → 2 parts
+    #   V no ESR: charge term alone 19.95 mV ≤ 20 mV at n=1 → unverified (missing esr_ohm)
+    #   X C_eff 5.4 µF: n=4 34.7 + 1.5 = 36.2 mV → fails (load 1.81)
+    #   Z C_eff 80 µF, 100 mΩ: n=4 2.3 + 30 = 32.3 mV → fails (load 1.62)
+    #   W: ripple fits at n=4 (18.7 mV) but 9 V > 0.5·16 V → fails voltage (load 1.125)
+    spec = load_spec(DATA / "spec.toml", {"vin_ripple": "20 mV"})
+    result = pick(catalog, spec, "input-cap", profile=load_profile("standard"))
+    assert [(o.mpn, o.count) for o in result.passed] == [("BP-476-Y", 2)]
+    assert names(result.unverified) == ["BP-476-V"]
+    assert result.unverified[0].missing == ("esr_ohm",)
+    assert names(result.failed) == ["OP-226-W", "BE-107-Z", "OP-106-X"]
+    assert result.failed[2].check("ripple-voltage").stress == pytest.approx(0.03622, rel=1e-3)
