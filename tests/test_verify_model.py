@@ -248,6 +248,30 @@ def test_ideal_ccm_ratio_is_one_over_one_minus_duty():
     assert result.efficiency == pytest.approx(1.0, abs=1e-9)
 
 
+def test_capacitor_ripple_matches_the_charge_balance_estimate():
+    # Erickson & Maksimovic, Fundamentals of Power Electronics, 3rd ed., ch. 2 (boost output
+    # ripple): with small inductor ripple the capacitor discharges by V·D·Ts/(R·C) peak to
+    # peak. V = 24 V, D = 0.5, Ts = 10 µs, R = 10 Ω, C = 100 µF: 24·0.5·1e-5/1e-3 = 0.12 V.
+    result = steady_state(_ideal(cout_f=100e-6), 12.0, 10.0, duty=0.5)
+    assert result.vout_ripple_v == pytest.approx(0.12, rel=1e-2)
+
+
+def test_esr_step_sits_between_the_app_note_terms():
+    # TI SLVA372 (Basic Calculation of a Boost Converter's Power Stage): the ESR adds
+    # ESR·(Iout/(1 − D) + ΔIL/2) and the charge adds Iout·D/(fsw·C). Their sum bounds the
+    # ripple from above and the ESR step alone from below. 12 V at D = 0.5 into 10 Ω, with
+    # 1 mH (ΔIL = 12·0.5/(100 kHz·1 mH) = 0.06 A) and 1 mF of 50 mΩ: Iout ≈ 2.4 A, so
+    # the ESR term is 0.05·(4.8 + 0.03) = 0.24 V and the charge term 2.4·0.5/(1e5·1e-3)
+    # = 0.012 V.
+    stage = _ideal(esr_ohm=0.05)
+    result = steady_state(stage, 12.0, 10.0, duty=0.5)
+    iout = result.iout_avg_a
+    ripple_a = 12.0 * 0.5 / (100e3 * 1e-3)
+    esr_term = 0.05 * (iout / 0.5 + ripple_a / 2.0)
+    charge_term = iout * 0.5 / (100e3 * 1e-3)
+    assert esr_term * 0.98 <= result.vout_ripple_v <= (esr_term + charge_term) * 1.001
+
+
 # ---------------------------------------------------------------- conservation and regulation
 
 

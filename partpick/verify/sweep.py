@@ -10,7 +10,7 @@ from __future__ import annotations
 
 import math
 from collections.abc import Iterable, Mapping, Sequence
-from dataclasses import dataclass
+from dataclasses import asdict, dataclass
 from typing import Any
 
 import numpy as np
@@ -127,6 +127,7 @@ class VerifyResult:
             "vout_v": self.vout_v,
             "vout_ripple_limit_v": self.vout_ripple_limit_v,
             "efficiency_estimate": self.efficiency_estimate,
+            "stage": {k: v for k, v in asdict(self.stage).items() if k != "notes"},
             "notes": list(self.stage.notes),
         }
 
