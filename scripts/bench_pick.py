@@ -170,6 +170,8 @@ def main(argv: list[str] | None = None) -> int:
     heavy = next((line[6:] for line in err.splitlines() if line.startswith("HEAVY=")), "?")
 
     startup, _o, _e = time_command([sys.executable, "-c", "import partpick.cli"], 3)
+    empty_args = args[:5] + ["--db", str(folder / "empty.db"), "--top", "10"]
+    empty, _o, _e = time_command(empty_args, 3)
     read_s, core_s = in_process_s(str(db), spec_path)
     base, base_passed = baseline_s(str(db), spec_path)
     best, median = min(table_times), statistics.median(table_times)
@@ -181,8 +183,9 @@ def main(argv: list[str] | None = None) -> int:
     print(f"baseline read_sql + numpy mask:    {base:.3f} s ({base_passed:,} pass its mask)")
     print(f"speed-up (baseline / best):        {base / best:.1f}x")
     print(f"heavy modules imported by pick:    {heavy or 'none'}")
-    print(f"  of which: python + import partpick.cli {min(startup):.3f} s; in process, "
-          f"read_columns {read_s:.3f} s, whole pick() {core_s:.3f} s")  # fmt: skip
+    print(f"  of which: python + import partpick.cli {min(startup):.3f} s; the same command "
+          f"on an empty catalog {min(empty):.3f} s")  # fmt: skip
+    print(f"  in process (warm): read_columns {read_s:.3f} s, whole pick() {core_s:.3f} s")
     ok = best <= 1.0 and base / best >= 3.0 and counted == data["total"] == opts.rows
     print("goals met" if ok else "goals NOT met (<= 1 s, >= 3x, every part counted)")
     return 0 if ok else 1
