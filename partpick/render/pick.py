@@ -42,6 +42,22 @@ ROLE_SECTIONS: dict[str, tuple[str, ...]] = {
     "diode": ("diode",),
     "switch": ("switch",),
 }
+# how the figures above turn into each part's own stress, said once under the operating point
+ROLE_BASIS: dict[str, str] = {
+    "inductor": "Peak and RMS currents are computed at each part's own minimum inductance "
+    "L·(1 − tolerance), the worst over the input range.",
+    "output-cap": "Each part is counted n times in parallel, the smallest n that meets ripple "
+    "voltage and current; capacitance is derated to C·(1 − tolerance)·kept fraction.",
+    "input-cap": "Each part is counted n times in parallel, the smallest n that meets the ripple "
+    "checks; capacitance is derated to C·(1 − tolerance)·kept fraction.",
+}
+# the part figures, derived by the rules, that --explain shows
+DERIVED: tuple[tuple[str, str, str], ...] = (
+    ("inductance_min_h", "minimum inductance used", "H"),
+    ("il_peak_a", "peak current at that inductance", "A"),
+    ("capacitance_eff_f", "effective capacitance per part", "F"),
+    ("voltage_use", "voltage use allowed for its dielectric", "fraction"),
+)
 STATUS_STYLES = {"pass": STYLE_PASS, "fail": STYLE_FAIL, "unverified": STYLE_UNVERIFIED}
 
 
@@ -311,6 +327,8 @@ def render_pick(result, console: Console, near_misses: int = 5) -> None:
         )
     )
     console.print(operating_point_table(result.operating_point))
+    if result.role in ROLE_BASIS:
+        console.print(Text(ROLE_BASIS[result.role], style=STYLE_MUTED))
     console.print(profile_table(result.profile, result.role))
     counts = result.counts
     console.print(
@@ -443,6 +461,11 @@ def render_explain(explanation, console: Console) -> None:
     console.print(table)
     extra = [f"loss {_q(o.loss_w, 'W')}", f"cost {o.cost:.2f}" if o.cost is not None else ""]
     console.print(Text(", ".join(x for x in extra if x), style=STYLE_MUTED))
+    for key, label, unit in DERIVED:
+        value = o.part.get(key)
+        if isinstance(value, float):
+            shown = _pct(value) if unit == "fraction" else _q(value, unit)
+            console.print(Text(f"{label}: {shown}", style=STYLE_MUTED))
     for note in o.notes:
         console.print(Text(f"note: {note}", style=STYLE_MUTED))
     if o.missing:
