@@ -469,3 +469,30 @@ def test_field_logger_parallel_counts_match_the_hand_working(field_logger_picks,
                                                              count):  # fmt: skip
     outcome = outcome_of(field_logger_picks, role, mpn)
     assert (outcome.status, outcome.count) == ("passed", count)
+
+
+# ---------------------------------------------------------------------------------------
+# the LED-bias scenario (hand-worked in the comments of catalogs/scenarios/led-bias.toml)
+
+LED_BIAS = CATALOGS / "scenarios" / "led-bias.toml"
+
+
+@pytest.mark.parametrize(
+    ("key", "expected"),
+    [
+        ("duty_max", 0.7875),  # 1 - 3.0*0.85/12
+        ("l_min_h", 6.270e-6),  # 4.2*0.7025/(1e6*0.4*1.1765)
+        ("l_max_h", 12.540e-6),  # same with 0.2
+        ("il_peak_max_a", 1.365),  # 1.1765 + 0.377/2 at 3.0 V
+        ("vsw_max_v", 12.05),  # 12 + 0.1/2
+        ("cout_min_f", 1.969e-6),  # 0.25*0.7875/(1e6*0.1)
+    ],
+)
+def test_led_bias_envelope_matches_the_hand_working(key, expected):
+    assert analyse(load_spec(LED_BIAS)).value(key) == pytest.approx(expected, rel=1e-3)
+
+
+@pytest.mark.parametrize("role", ["inductor", "input-cap", "output-cap", "diode", "switch"])
+def test_led_bias_has_at_least_three_passes_per_role(bundled_db, role):
+    result = pick(bundled_db[0], load_spec(LED_BIAS), role, profile=load_profile("standard"))
+    assert len(result.passed) >= 3
