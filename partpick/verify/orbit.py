@@ -33,12 +33,16 @@ import numpy as np
 from scipy.linalg import expm
 from scipy.optimize import brentq, minimize_scalar
 
+from partpick.verify.sampling import first_fall_below_zero
 from partpick.verify.stage import Stage
 
+_IL_ROW = np.array([1.0, 0.0, 0.0])
 MODE_CCM = "ccm"
 MODE_DCM = "dcm"
 DUTY_MIN = 1e-4
 DUTY_MAX = 0.99
+_REGULATION_TOLERANCE = 1e-6
+_SCAN_STEPS = 32
 
 
 @dataclass(frozen=True, eq=False)
@@ -55,6 +59,7 @@ class Circuit:
     systems: dict[str, np.ndarray]
     vout_rows: dict[str, np.ndarray]
     icap_rows: dict[str, np.ndarray]
+    off_ringing_rad_s: float = 0.0
 
     @property
     def period_s(self) -> float:
@@ -98,6 +103,7 @@ def boost_circuit(stage: Stage, vin_v: float, load_ohm: float) -> Circuit:
         stage=stage,
         vin_v=float(vin_v),
         load_ohm=float(load_ohm),
+        off_ringing_rad_s=_ringing_rad_s(off[:2, :2]),
         systems={"on": on, "off": off, "idle": idle},
         vout_rows={
             "on": blocked_vout,
@@ -110,6 +116,16 @@ def boost_circuit(stage: Stage, vin_v: float, load_ohm: float) -> Circuit:
             "idle": blocked_icap,
         },
     )
+
+
+def _ringing_rad_s(state_matrix: np.ndarray) -> float:
+    """Return the damped natural frequency of a 2 × 2 system (0 when it does not ring), rad/s.
+
+    Eigenvalues λ = τ/2 ± √(τ²/4 − Δ) with τ the trace and Δ the determinant.
+    """
+    half_trace = 0.5 * float(np.trace(state_matrix))
+    discriminant = half_trace**2 - float(np.linalg.det(state_matrix))
+    return math.sqrt(-discriminant) if discriminant < 0.0 else 0.0
 
 
 def propagator(system: np.ndarray, duration_s: float) -> np.ndarray:
@@ -130,17 +146,22 @@ def propagator_with_integral(
 
 
 def second_moment(system: np.ndarray, duration_s: float, z_start: np.ndarray) -> np.ndarray:
-    """Return ∫₀ᵗ z zᵀ ds for z(s) = e^{F s} z₀, by Van Loan's block exponential ([VL] thm 1).
+    """Return ∫₀ᵗ z zᵀ ds for z(s) = e^{F s} z₀ (3 × 3), from one block exponential ([VL]).
 
-    With C = [[−F, Q], [0, Fᵀ]] and Q = z₀z₀ᵀ, e^{C t} = [[·, G], [0, H]] and the integral is Hᵀ G.
+    z zᵀ obeys d/ds vec(z zᵀ) = K vec(z zᵀ) with K = F ⊗ I + I ⊗ F, so the integral is
+    (∫₀ᵗ e^{K s} ds) vec(z₀ z₀ᵀ), the lower-left block of e^{[[K, 0], [I, 0]] t}. Unlike the
+    [[−F, Q], [0, Fᵀ]] form this never exponentiates −F, so it stays accurate for stiff
+    intervals (large R/L or long off times).
     """
     n = system.shape[0]
-    block = np.zeros((2 * n, 2 * n))
-    block[:n, :n] = -system
-    block[:n, n:] = np.outer(z_start, z_start)
-    block[n:, n:] = system.T
-    exp = expm(block * duration_s)
-    moment = exp[n:, n:].T @ exp[:n, n:]
+    eye = np.eye(n)
+    # F ⊗ I + I ⊗ F by broadcasting (np.kron's overhead is larger than the work here)
+    kron = (
+        system[:, None, :, None] * eye[None, :, None, :]
+        + eye[:, None, :, None] * system[None, :, None, :]
+    ).reshape(n * n, n * n)
+    _, integral = propagator_with_integral(kron, duration_s)
+    moment = (integral @ np.outer(z_start, z_start).ravel()).reshape(n, n)
     return 0.5 * (moment + moment.T)
 
 
@@ -220,11 +241,29 @@ def orbit(circuit: Circuit, duty: float, zero_hint_s: float | None = None) -> Or
     t_on, t_off = duty * period, (1.0 - duty) * period
     on, off = _interval(circuit, "on", t_on), _interval(circuit, "off", t_off)
     z0 = _periodic_start(on[2], off[2])
-    if z0[0] >= 0.0:
+    if _current_stays_positive(circuit, on[2], t_off, z0):
         return Orbit(circuit, duty, MODE_CCM, _plan_segments([on, off], z0))
     t_zero, vc0 = _zero_current_time(circuit, on[2], t_on, t_off, zero_hint_s)
     plan = [on, _interval(circuit, "off", t_zero), _idle_interval(circuit, t_off - t_zero)]
     return Orbit(circuit, duty, MODE_DCM, _plan_segments(plan, np.array([0.0, vc0, 1.0])))
+
+
+def _current_stays_positive(
+    circuit: Circuit, on_map: np.ndarray, t_off: float, z0: np.ndarray
+) -> bool:
+    """Return True when the CCM orbit's inductor current never falls below zero.
+
+    The on interval only drives iL towards Vin/R (it is decoupled), so only the off interval
+    can take it below zero. Its solution is a sum of two modes, so while it rings for less
+    than half a cycle (ω·t_off < π) iL has at most one turning point there; with iL(T) ≥ 0
+    and iL still falling at T, iL cannot have dipped below zero. Otherwise it is sampled.
+    """
+    if z0[0] < 0.0:
+        return False
+    off = circuit.systems["off"]
+    if circuit.off_ringing_rad_s * t_off < math.pi and float(off[0] @ z0) <= 0.0:
+        return True
+    return first_fall_below_zero(off, on_map @ z0, t_off, _IL_ROW) is None
 
 
 def _idle_interval(circuit: Circuit, duration: float):
@@ -246,8 +285,8 @@ def _zero_current_time(
     """Return (instant in the off interval at which iL reaches zero in s, periodic vC(0) in V).
 
     Brent's method on the end-of-interval current of the periodic DCM orbit. The bracket is
-    first tried tight around the hint (1 %) or a straight-line estimate (10 %), then widened
-    to the whole off interval.
+    first tried tight around the hint (1 %) or the estimate (10 %); failing those, the off
+    interval is scanned for the first sign change.
     """
     states: dict[float, tuple[float, float]] = {}
 
@@ -257,7 +296,8 @@ def _zero_current_time(
         return states[t_zero][1]
 
     floor = t_off * 1e-9
-    guesses = [(hint_s, 0.01), (_zero_current_estimate(circuit, on_map[0, 2], t_on), 0.1)]
+    estimate = _zero_current_estimate(circuit, on_map, t_on, t_off)
+    guesses = [(hint_s, 0.01), (estimate, 0.1)]
     for centre, spread in guesses:
         if centre is None or not floor < centre * (1.0 + spread) < t_off:
             continue
@@ -265,32 +305,44 @@ def _zero_current_time(
         if end_current(low) > 0.0 > end_current(high):
             t_zero = _brent_time(end_current, low, high, circuit.period_s)
             return t_zero, states[t_zero][0]
-    if end_current(t_off) >= 0.0:  # at the CCM/DCM boundary to numerical precision
-        return t_off, states[t_off][0]
-    t_zero = _brent_time(end_current, floor, t_off, circuit.period_s)
-    end_current(t_zero)
-    return t_zero, states[t_zero][0]
+    # No tight bracket: scan the off interval for the first instant the end current is not
+    # positive, so a later swing of a ringing current is never taken for the first zero.
+    low = floor
+    for j in range(1, _SCAN_STEPS + 1):
+        high = t_off * j / _SCAN_STEPS
+        if end_current(high) <= 0.0:
+            t_zero = _brent_time(end_current, low, high, circuit.period_s)
+            end_current(t_zero)
+            return t_zero, states[t_zero][0]
+        low = high
+    return t_off, states[t_off][0]  # at the CCM/DCM boundary to numerical precision
 
 
 def _brent_time(function, low: float, high: float, period_s: float) -> float:
     return brentq(function, low, high, xtol=period_s * 1e-14, rtol=1e-11)
 
 
-def _zero_current_estimate(circuit: Circuit, peak_a: float, t_on: float) -> float | None:
-    """Return the straight-line estimate of the zero-current instant, i₁·L/(Vo + V_F − Vin).
+def _zero_current_estimate(
+    circuit: Circuit, on_map: np.ndarray, t_on: float, t_off: float
+) -> float | None:
+    """Return an estimate of the zero-current instant, only to place a tight first bracket.
 
-    Vo is taken from the ideal DCM ratio M = (1 + √(1 + 4D²/K))/2 ([EM] ch. 5), only to
-    place a tight first bracket. peak_a: iL at the end of the on interval, which starts from
-    zero and does not depend on vC.
+    vC(0) is taken from the ideal DCM ratio M = (1 + √(1 + 4D²/K))/2 ([EM] ch. 5). Where the
+    off interval rings (ω·t_off ≥ π/2) the current may reach zero on a later swing too, so the
+    first zero of that trajectory is found by sampling; otherwise the straight line
+    i₁·L/(Vo + V_F − Vin) is used.
     """
     stage, period = circuit.stage, circuit.period_s
-    duty = t_on / period
     k = 2.0 * stage.inductance_h / (circuit.load_ohm * period)
-    vout = circuit.vin_v * (1.0 + math.sqrt(1.0 + 4.0 * duty**2 / k)) / 2.0
-    fall_v = vout + stage.diode_vf_v - circuit.vin_v
-    if peak_a <= 0.0 or fall_v <= 0.0:
+    ratio = (1.0 + math.sqrt(1.0 + 4.0 * (t_on / period) ** 2 / k)) / 2.0
+    vout = circuit.vin_v * ratio
+    peak = on_map @ np.array([0.0, vout, 1.0])
+    if peak[0] <= 0.0:
         return None
-    return peak_a * stage.inductance_h / fall_v
+    if circuit.off_ringing_rad_s * t_off >= 0.5 * math.pi:
+        return first_fall_below_zero(circuit.systems["off"], peak, t_off, _IL_ROW)
+    fall_v = vout + stage.diode_vf_v - circuit.vin_v
+    return peak[0] * stage.inductance_h / fall_v if fall_v > 0.0 else None
 
 
 def _memoised(function):
@@ -351,8 +403,8 @@ def regulated_orbit(circuit: Circuit, vout_v: float) -> tuple[Orbit, bool]:
         error(bracket)
         return solved[bracket], False
     duty = brentq(error, *bracket, xtol=1e-13, rtol=1e-11)
-    error(duty)
-    return solved[duty], True
+    # a jump in Vout(D) can fool any bracketing method: claim regulation only when it holds
+    return solved[duty], abs(error(duty)) <= _REGULATION_TOLERANCE * vout_v
 
 
 def _bracket_duty(error, guess: float) -> tuple[float, float] | float:

@@ -19,7 +19,6 @@ import math
 from dataclasses import dataclass, field
 
 import numpy as np
-from scipy.optimize import brentq
 
 from partpick import losses
 from partpick.verify.blas import single_blas_thread
@@ -27,13 +26,12 @@ from partpick.verify.orbit import (
     MODE_CCM,
     Circuit,
     Orbit,
-    Segment,
     boost_circuit,
     orbit,
-    propagator,
     regulated_orbit,
     second_moment,
 )
+from partpick.verify.sampling import sample_segment, segment_extremes
 from partpick.verify.stage import Stage
 
 __all__ = [
@@ -54,9 +52,6 @@ LOSS_KEYS: tuple[str, ...] = (
     "diode_recovery",
     "esr",
 )
-_SAMPLES_PER_INTERVAL = 24
-_MAX_STEP_NORM = 0.25
-_TAYLOR_DEGREE = 12
 _IL_ROW = np.array([1.0, 0.0, 0.0])
 
 
@@ -186,7 +181,7 @@ def _conduction_losses(circuit: Circuit, moments: dict[str, np.ndarray]) -> dict
         ),
         "switch_conduction": float(
             losses.switch_conduction_loss_w(
-                math.sqrt(on[0, 0] / period), stage.rds_on_ohm, stage.hot_factor
+                math.sqrt(max(on[0, 0], 0.0) / period), stage.rds_on_ohm, stage.hot_factor
             )
         ),
         "diode_conduction": float(
@@ -194,12 +189,14 @@ def _conduction_losses(circuit: Circuit, moments: dict[str, np.ndarray]) -> dict
                 stage.diode_vf_v,
                 off[0, 2] / period,
                 stage.diode_rd_ohm,
-                math.sqrt(off[0, 0] / period),
+                math.sqrt(max(off[0, 0], 0.0) / period),
             )
         ),
         # the bank's RMS current through n equal parts of ESR each
         "esr": float(
-            losses.capacitor_esr_loss_w(math.sqrt(esr_sq), stage.esr_ohm, stage.output_count)
+            losses.capacitor_esr_loss_w(
+                math.sqrt(max(esr_sq, 0.0)), stage.esr_ohm, stage.output_count
+            )
         ),
     }
 
@@ -240,62 +237,16 @@ def _formula_losses(solved: Orbit) -> dict[str, float]:
 def _extremes(solved: Orbit) -> tuple[np.ndarray, np.ndarray]:
     """Return ([min iL, min vo], [max iL, max vo]) over the period.
 
-    Each interval is sampled exactly (powers of one step's e^{F h}) and every sign change of
-    the derivative between samples is refined with Brent's method, so interior peaks (vo
-    peaks inside the off interval where iC crosses zero) are found, not sampled.
+    Each interval is sampled exactly and every turning point between samples is refined
+    (:mod:`partpick.verify.sampling`), so interior peaks (vo peaks inside the off interval
+    where iC crosses zero) are found, not sampled.
     """
     circuit = solved.circuit
     lows, highs = [], []
     for segment in solved.segments:
         rows = np.vstack([_IL_ROW, circuit.vout_rows[segment.name]])
-        low, high = _segment_extremes(circuit.systems[segment.name], segment, rows)
+        system = circuit.systems[segment.name]
+        low, high = segment_extremes(system, segment.z_start, segment.duration_s, rows)
         lows.append(low)
         highs.append(high)
     return np.min(lows, axis=0), np.max(highs, axis=0)
-
-
-def _segment_extremes(
-    system: np.ndarray, segment: Segment, rows: np.ndarray
-) -> tuple[np.ndarray, np.ndarray]:
-    """Return the (min, max) of each output row over one interval."""
-    norm = np.abs(system).sum(axis=0).max()  # ‖F‖₁, to keep each step short for the series
-    steps = max(_SAMPLES_PER_INTERVAL, math.ceil(norm * segment.duration_s / _MAX_STEP_NORM))
-    step = segment.duration_s / steps
-    states = sample_segment(system, segment.z_start, step, steps)
-    values = states @ rows.T
-    slopes = states @ (rows @ system).T
-    low, high = values.min(axis=0), values.max(axis=0)
-    for column, row in enumerate(rows):
-        turning = np.nonzero(slopes[:-1, column] * slopes[1:, column] < 0.0)[0]
-        for k in turning:
-            value = _refined_value(system, states[k], row, step)
-            low[column], high[column] = min(low[column], value), max(high[column], value)
-    return low, high
-
-
-def _refined_value(system, z_sample, row, step_s: float) -> float:
-    """Return the extreme value of row · z inside one sampling step that brackets it.
-
-    Within the step z(τ) = e^{F τ} z_k = Σ (F τ)^j z_k / j!; with ‖F h‖ ≤ 0.25 the series of
-    degree 12 is exact to rounding, so Brent's method on its derivative finds the turning point
-    without another matrix exponential.
-    """
-    coefficients = [z_sample]
-    for j in range(1, _TAYLOR_DEGREE + 1):
-        coefficients.append(system @ coefficients[-1] / j)
-    values = np.array([row @ c for c in coefficients])  # ascending powers of τ
-    slopes = values[1:] * np.arange(1, values.size)
-    t_peak = brentq(lambda t: float(np.polyval(slopes[::-1], t)), 0.0, step_s, xtol=step_s * 1e-12)
-    return float(np.polyval(values[::-1], t_peak))
-
-
-def sample_segment(
-    system: np.ndarray, z_start: np.ndarray, step_s: float, steps: int
-) -> np.ndarray:
-    """Return z at 0, h, …, steps·h (shape (steps + 1, 3)), exact by repeated e^{F h}."""
-    exp = propagator(system, step_s)
-    states = np.empty((steps + 1, z_start.size))
-    states[0] = z_start
-    for k in range(steps):
-        states[k + 1] = exp @ states[k]
-    return states
