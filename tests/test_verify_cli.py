@@ -214,3 +214,50 @@ def test_plot_writes_png_and_svg(catalog, tmp_path, name, magic):
     data = target.read_bytes()
     assert magic in data[:400]
     assert not list(target.parent.glob(".*.tmp"))  # the temporary file was renamed away
+
+
+# ---------------------------------------------------------------- the renderer
+
+
+def _result_with_warnings():
+    from partpick.design.spec import Spec
+    from partpick.verify.stage import Stage
+    from partpick.verify.sweep import OperatingPoint, verify_design
+
+    spec = Spec(
+        vin_min_v=6.0, vin_max_v=8.4, vout_v=24.0, iout_a=0.8, fsw_hz=400e3, vout_ripple_v=0.12
+    )
+    # one 5.4 µF part: about 0.28 V of charge ripple (Iout·D/(fsw·C)), over the 120 mV limit
+    stage = Stage(
+        inductance_h=15e-6,
+        dcr_ohm=0.018,
+        rds_on_ohm=0.007,
+        hot_factor=1.5,
+        diode_vf_v=0.47,
+        cout_f=5.4e-6,
+        esr_ohm=0.004,
+        fsw_hz=400e3,
+    )
+    points = [OperatingPoint(6.0, 0.8), OperatingPoint(2.0, 0.2)]
+    return verify_design(spec, stage, points, efficiency_estimate=0.5)
+
+
+def test_render_shows_each_point_and_every_warning_as_a_sentence():
+    from io import StringIO
+
+    from rich.console import Console
+
+    from partpick.render.verify import render_verify, warning_sentence
+
+    result = _result_with_warnings()
+    codes = {w.code for w in result.warnings}
+    assert {"ripple-above-limit", "high-duty", "efficiency-off-estimate"} <= codes
+    buffer = StringIO()
+    render_verify(result, Console(file=buffer, width=100, color_system=None))
+    text = buffer.getvalue()
+    assert "6 V" in text and "2 V" in text
+    assert "Losses per element" in text
+    for warning in result.warnings:
+        sentence = warning_sentence(warning)
+        assert sentence.split(":")[0] in text
+        assert warning.code not in sentence  # sentences, not codes
