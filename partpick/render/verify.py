@@ -20,7 +20,7 @@ LOSS_TITLES = {
     "switching": "Q sw",
     "coss": "Coss",
     "diode_conduction": "D cond",
-    "diode_recovery": "D Qrr",
+    "diode_recovery": "Qrr",
     "esr": "ESR",
 }
 
@@ -68,8 +68,12 @@ def points_table(result: VerifyResult) -> Table:
     return table
 
 
+def _milliwatts(value_w: float) -> str:
+    return f"{value_w * 1e3:.3g}"
+
+
 def losses_table(points: tuple[PointResult, ...]) -> Table:
-    """Return the loss of each element at each operating point, in W."""
+    """Return the loss of each element at each operating point, in mW (plain numbers)."""
     table = Table(
         box=box.SIMPLE_HEAD, header_style=STYLE_HEADING, pad_edge=False, collapse_padding=True
     )
@@ -79,12 +83,12 @@ def losses_table(points: tuple[PointResult, ...]) -> Table:
         table.add_column(LOSS_TITLES[key], justify="right", no_wrap=True)
     table.add_column("Total", justify="right", no_wrap=True)
     for item in points:
-        cells = [format_eng(item.state.losses_w[key], "W") for key in LOSS_KEYS]
+        cells = [_milliwatts(item.state.losses_w[key]) for key in LOSS_KEYS]
         table.add_row(
             format_eng(item.point.vin_v, "V"),
             format_eng(item.point.iout_a, "A"),
             *cells,
-            format_eng(item.state.total_loss_w, "W"),
+            _milliwatts(item.state.total_loss_w),
         )
     return table
 
@@ -138,7 +142,7 @@ def render_verify(result: VerifyResult, console: Console) -> None:
         )
     )
     console.print(points_table(result))
-    console.print(Text("Losses per element", style=STYLE_HEADING))
+    console.print(Text("Losses per element (mW)", style=STYLE_HEADING))
     console.print(losses_table(result.points))
     for note in result.stage.notes:
         console.print(Text(f"note: {note}", style=STYLE_MUTED))
