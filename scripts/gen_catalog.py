@@ -180,14 +180,20 @@ def blank_some(rng: np.random.Generator, values: np.ndarray, fraction: float) ->
     return values
 
 
-def choose_text(rng: np.random.Generator, keys: np.ndarray, table: dict[str, list[str]]):
-    """Return, per row, one of the spellings ``table[key]`` of that row's key."""
-    codes, uniq = pd.factorize(keys)
-    out = np.empty(len(keys), dtype=object)
+def choose_text(rng: np.random.Generator, keys, table: dict[str, list[str]]) -> np.ndarray:
+    """Return, per row, one of the spellings ``table[key]`` of that row's key.
+
+    ``keys`` is a text column or a ``(names, codes)`` pair meaning ``names[codes]``.
+    """
+    codes, uniq = (
+        (np.asarray(keys[1]), list(keys[0])) if isinstance(keys, tuple) else (pd.factorize(keys))
+    )
+    out = np.empty(len(codes), dtype=object)
     for i, key in enumerate(uniq):
         rows = np.flatnonzero(codes == i)
-        options = np.array(table[key], dtype=object)
-        out[rows] = options[rng.integers(0, len(options), len(rows))]
+        if len(rows):
+            options = np.array(table[key], dtype=object)
+            out[rows] = options[rng.integers(0, len(options), len(rows))]
     return out
 
 
@@ -206,7 +212,8 @@ def serials(rows: int, seed: int) -> np.ndarray:
     chars = np.empty((rows, 6), dtype=np.uint8)
     for position in range(6):
         chars[:, position] = alphabet[(code // n ** (5 - position)) % n]
-    return chars.view("S6").ravel().astype("U6").astype(object)
+    text = chars.tobytes().decode("ascii")
+    return np.array([text[i : i + 6] for i in range(0, 6 * rows, 6)], dtype=object)
 
 
 def iec_code(value_si: float, letter: str, scale: float) -> str:
@@ -227,8 +234,8 @@ def value_code(value: float) -> str:
 
 
 def lifecycle_column(rng, rows, layout):
-    states = rng.choice(LIFECYCLES, size=rows, p=LIFECYCLE_P)
-    return choose_text(rng, states, LIFECYCLE_TEXT[layout])
+    states = rng.choice(len(LIFECYCLES), size=rows, p=LIFECYCLE_P)
+    return choose_text(rng, (LIFECYCLES, states), LIFECYCLE_TEXT[layout])
 
 
 def stock_column(rng, rows, layout):
@@ -272,8 +279,15 @@ def tolerance_column(rng, tol: np.ndarray, layout: str) -> np.ndarray:
 
 
 def makers(rng, names: Sequence[str], prefixes: Sequence[str], rows: int):
+    """Return each row's maker name and its part-number prefix as a ``(pool, codes)`` pair."""
     which = rng.integers(0, len(names), rows)
-    return np.array(names, dtype=object)[which], np.array(prefixes, dtype=object)[which]
+    return np.array(names, dtype=object)[which], (list(prefixes), which)
+
+
+def coded(values: np.ndarray, fmt: Callable[[float], str]) -> tuple[list[str], np.ndarray]:
+    """Return ``values`` as a ``(pool, codes)`` text pair, formatting each distinct value once."""
+    codes, uniq = pd.factorize(np.asarray(values, dtype=float))
+    return [fmt(v) for v in uniq], codes
 
 
 # ---------------------------------------------------------------------------------------
@@ -325,8 +339,8 @@ def _inductors(rng: np.random.Generator, rows: int, seed: int, layout: str) -> d
     tol = np.where(l_uh < 2.2, 0.3, np.where(rng.random(rows) < 0.2, 0.1, 0.2))
     maker, prefix = makers(rng, INDUCTOR_MAKERS, INDUCTOR_PREFIXES, rows)
     names = np.array([s[0] for s in INDUCTOR_SIZES], dtype=object)
-    l_code = texts(rng, l_uh, [value_code], np.array([""], dtype=object))
-    tol_letter = np.where(tol == 0.3, "N", np.where(tol == 0.1, "K", "M")).astype(object)
+    l_code = coded(l_uh, value_code)
+    tol_letter = (["K", "M", "N"], np.where(tol == 0.3, 2, np.where(tol == 0.1, 0, 1)))
     mpn = join_columns(prefix, "-", (names, size), "-", l_code, tol_letter, "-") + serials(
         rows, seed
     )
@@ -368,7 +382,7 @@ def _inductors(rng: np.random.Generator, rows: int, seed: int, layout: str) -> d
         "package": names[size],
         **size_columns(rng, dims, layout),
         "shielded": choose_text(
-            rng, np.where(shielded, "y", "n"), {"y": shield_text[0], "n": shield_text[1]}
+            rng, (("n", "y"), shielded.astype(int)), {"y": shield_text[0], "n": shield_text[1]}
         ),
         "unit_price": price_column(rng, price, layout),
         "stock": stock_column(rng, rows, layout),
@@ -514,12 +528,12 @@ def _capacitors(rng: np.random.Generator, rows: int, seed: int, layout: str) -> 
             }.get(fam, "Radial")
     spread = jitter(rng, rows, 0.15)
     esr, ripple = round_sig(esr * spread), round_sig(ripple / np.sqrt(spread))
-    fam_names = np.array(fams, dtype=object)[fam_idx]
     temp = np.array([CAP_FAMILIES[f][5] for f in fams], dtype=float)[fam_idx]
-    hot = np.isin(fam_names, ["al-electrolytic", "al-polymer"]) & (rng.random(rows) < 0.3)
+    aluminium = np.isin(fam_idx, [fams.index("al-electrolytic"), fams.index("al-polymer")])
+    hot = aluminium & (rng.random(rows) < 0.3)
     temp = np.where(hot, 125.0, temp)
     life = np.where(
-        np.isin(fam_names, ["al-electrolytic", "al-polymer"]),
+        aluminium,
         np.array([1000.0, 2000, 5000, 10000])[rng.integers(0, 4, rows)],
         np.nan,
     )
@@ -530,13 +544,14 @@ def _capacitors(rng: np.random.Generator, rows: int, seed: int, layout: str) -> 
     for i, fam in enumerate(fams):
         rows_f = np.flatnonzero(fam_idx == i)
         names, prefixes = zip(*CAP_MAKERS["ceramic" if fam in CERAMICS else fam], strict=True)
-        maker[rows_f], prefix[rows_f] = makers(rng, names, prefixes, len(rows_f))
+        maker[rows_f], (pool, which) = makers(rng, names, prefixes, len(rows_f))
+        prefix[rows_f] = np.array(pool, dtype=object)[which]
     mpn = join_columns(
         prefix,
         "-",
-        texts(rng, c_f * 1e12, [value_code], miss),
+        coded(c_f * 1e12, value_code),
         "-",
-        texts(rng, v, [(1.0, "V")], miss),
+        coded(v, lambda x: f"{x:g}V"),
         "-",
     ) + serials(rows, seed)
     c_sp = (
@@ -559,14 +574,14 @@ def _capacitors(rng: np.random.Generator, rows: int, seed: int, layout: str) -> 
         "mpn": mpn,
         "manufacturer": maker,
         "description": choose_text(
-            rng, fam_names, {f: [DIELECTRIC_SPELLINGS[f][0] + " capacitor"] for f in fams}
+            rng, (fams, fam_idx), {f: [DIELECTRIC_SPELLINGS[f][0] + " capacitor"] for f in fams}
         ),
         "capacitance_f": texts(rng, c_f, c_sp, miss),
         "tolerance": tolerance_column(rng, tol, layout),
         "voltage_v": texts(
             rng, v, [(1.0, " V")] if not messy else [(1.0, " V"), (1.0, "V"), (1.0, " VDC")], miss
         ),
-        "dielectric": choose_text(rng, fam_names, diel_text),
+        "dielectric": choose_text(rng, (fams, fam_idx), diel_text),
         "esr_ohm": texts(
             rng,
             blank_some(rng, esr, 0.03),
@@ -678,7 +693,7 @@ def _diodes(rng: np.random.Generator, rows: int, seed: int, layout: str) -> dict
     qrr = np.where(np.isnan(trr), 0.0, trr * 1e-9 * if_avg * 0.5)
     qrr = np.where(types_is(t_idx, types, "sic"), 3e-9 * if_avg * vrrm / 650, qrr)
     maker, prefix = makers(rng, DIODE_MAKERS, DIODE_PREFIXES, rows)
-    kind_letter = np.array(["SB", "FR", "GP", "SC"], dtype=object)[t_idx]
+    kind_letter = (["SB", "FR", "GP", "SC"], t_idx)
     messy = layout == "messy"
     miss = MISSING_MESSY if messy else np.array([""], dtype=object)
     v_sp = [(1.0, " V")] if not messy else [(1.0, " V"), (1.0, "V"), (1e3, " kV")]
@@ -689,21 +704,19 @@ def _diodes(rng: np.random.Generator, rows: int, seed: int, layout: str) -> dict
             prefix,
             "-",
             kind_letter,
-            texts(rng, if_avg * 10, [(1, "")], miss),
+            coded(if_avg * 10, lambda x: f"{x:g}"),
             "-",
-            texts(rng, vrrm, [(1, "")], miss),
+            coded(vrrm, lambda x: f"{x:g}"),
             "-",
         )
         + serials(rows, seed),
         "manufacturer": maker,
         "description": choose_text(
             rng,
-            np.array(types, dtype=object)[t_idx],
+            (types, t_idx),
             {t: [DIODE_TYPE_TEXT["clean"][t][0] + " rectifier"] for t in types},
         ),
-        "diode_type": choose_text(
-            rng, np.array(types, dtype=object)[t_idx], DIODE_TYPE_TEXT[layout]
-        ),
+        "diode_type": choose_text(rng, (types, t_idx), DIODE_TYPE_TEXT[layout]),
         "vrrm_v": texts(rng, vrrm, v_sp, miss),
         "if_avg_a": texts(rng, if_avg, i_sp, miss),
         "ifsm_a": texts(
@@ -793,7 +806,6 @@ def _mosfets(rng: np.random.Generator, rows: int, seed: int, layout: str) -> dic
     messy = layout == "messy"
     miss = MISSING_MESSY if messy else np.array([""], dtype=object)
     sign = np.where(p_channel & messy & (rng.random(rows) < 0.5), -1.0, 1.0)  # "-40 V" p-channel
-    channel = np.where(p_channel, "p", "n").astype(object)
     ch_text = (
         {"n": ["N-Channel"], "p": ["P-Channel"]}
         if not messy
@@ -805,9 +817,9 @@ def _mosfets(rng: np.random.Generator, rows: int, seed: int, layout: str) -> dic
     return {
         "mpn": join_columns(
             prefix,
-            texts(rng, vds, [(1, "")], miss),
+            coded(vds, lambda x: f"{x:g}"),
             "-",
-            texts(rng, round_sig(id_a), [lambda v: num(v, 2).replace(".", "R")], miss),
+            coded(round_sig(id_a), lambda v: num(v, 2).replace(".", "R")),
             "-",
             ([p[0] for p in FET_PACKAGES], pkg),
             "-",
@@ -819,7 +831,9 @@ def _mosfets(rng: np.random.Generator, rows: int, seed: int, layout: str) -> dic
             ([p[0] for p in FET_PACKAGES], pkg),
         ),
         "channel": choose_text(
-            rng, np.where(rng.random(rows) < 0.01, "-", channel), {**ch_text, "-": [""]}
+            rng,
+            (("n", "p", "-"), np.where(rng.random(rows) < 0.01, 2, p_channel.astype(int))),
+            {**ch_text, "-": [""]},
         ),
         "vds_v": texts(rng, sign * vds, v_sp, miss),
         "id_a": texts(
