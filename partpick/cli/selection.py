@@ -16,8 +16,8 @@ import typer
 from partpick.cli.common import DbOption, friendly_errors
 from partpick.cli.spec_options import with_spec_options
 from partpick.design.spec import Spec
+from partpick.screening.roles import ROLES
 
-ROLE_NAMES = ("inductor", "input-cap", "output-cap", "diode", "switch")
 TABLE_TOP_DEFAULT = 10
 """Parts per list in the table view when --top is not given (JSON lists every part)."""
 
@@ -39,7 +39,7 @@ class Rank(StrEnum):
 
 RoleOption = Annotated[
     str,
-    typer.Option("--role", help=f"Role to fill: {', '.join(ROLE_NAMES)}.", show_default=False),
+    typer.Option("--role", help=f"Role to fill: {', '.join(ROLES)}.", show_default=False),
 ]
 ProfileOption = Annotated[
     str,

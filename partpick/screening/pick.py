@@ -17,8 +17,8 @@ from partpick.fields import fields_of
 from partpick.screening import capacitor, diode, inductor, switch
 from partpick.screening.checks import FAIL, UNVERIFIED, Check, Outcome, Screen, core_data_rule
 from partpick.screening.profiles import Profile
+from partpick.screening.roles import ROLE_KINDS, ROLES
 
-ROLES: tuple[str, ...] = ("inductor", "input-cap", "output-cap", "diode", "switch")
 RANKS: tuple[str, ...] = ("loss", "cost", "size")
 # catalog fields read for every role besides the rule fields: identity, price and footprint
 _COMMON_FIELDS: tuple[str, ...] = ("mpn", "manufacturer", "unit_price", "length_mm", "width_mm")
@@ -37,16 +37,17 @@ class RoleRules:
 
 
 ROLE_RULES: dict[str, RoleRules] = {
-    "inductor": RoleRules(inductor.KIND, inductor.FIELDS, inductor.CORE, inductor.screen),
+    "inductor": RoleRules(ROLE_KINDS["inductor"], inductor.FIELDS, inductor.CORE, inductor.screen),
     "input-cap": RoleRules(
-        capacitor.KIND, capacitor.FIELDS, capacitor.CORE, capacitor.screen_input
+        ROLE_KINDS["input-cap"], capacitor.FIELDS, capacitor.CORE, capacitor.screen_input
     ),
     "output-cap": RoleRules(
-        capacitor.KIND, capacitor.FIELDS, capacitor.CORE, capacitor.screen_output
+        ROLE_KINDS["output-cap"], capacitor.FIELDS, capacitor.CORE, capacitor.screen_output
     ),
-    "diode": RoleRules(diode.KIND, diode.FIELDS, diode.CORE, diode.screen),
-    "switch": RoleRules(switch.KIND, switch.FIELDS, switch.CORE, switch.screen),
+    "diode": RoleRules(ROLE_KINDS["diode"], diode.FIELDS, diode.CORE, diode.screen),
+    "switch": RoleRules(ROLE_KINDS["switch"], switch.FIELDS, switch.CORE, switch.screen),
 }
+__all__ = ["ROLES", "ROLE_RULES", "PickResult", "Explanation", "pick", "explain"]
 
 
 @dataclass(frozen=True)
