@@ -143,6 +143,19 @@ def test_repeated_part_in_one_file_is_rejected_once(db_file, write_csv):
     assert "line 2" in reject.reason and report.added == 2
 
 
+def test_repeats_across_chunks_are_found_when_the_catalog_already_has_parts(db_file, write_csv):
+    import_catalog(db_file, [SMALL], "inductor")  # not empty: rows are upserted chunk by chunk
+    rows = [GOOD_ROW.format(n=i) for i in (1, 2, 3, 1, 4, 2)]  # lines 2..7
+    (report,) = import_catalog(
+        db_file, [write_csv("\n".join([HEADER, *rows]))], "inductor", chunk_rows=2
+    )
+    assert [(r.line, r.reason) for r in report.rejects] == [
+        (5, "same manufacturer and part number as line 2"),
+        (7, "same manufacturer and part number as line 3"),
+    ]
+    assert (report.added, report.rejected) == (4, 2)
+
+
 def test_row_without_part_number_is_rejected(db_file, write_csv):
     lines = [HEADER, GOOD_ROW.format(n=1), GOOD_ROW.format(n=2).replace("QM-2", " N/A ")]
     (report,) = import_catalog(db_file, [write_csv("\n".join(lines))], "inductor")

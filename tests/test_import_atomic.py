@@ -43,9 +43,10 @@ def _fail_on_call(monkeypatch, module, name, call_number, error=Injected):
 @pytest.mark.parametrize(
     ("module", "name", "call_number"),
     [
-        (merge, "stage_rows", 2),  # midway through staging the chunks
-        (merge, "find_duplicates", 1),  # after every chunk is staged
-        (merge, "_upsert", 1),  # while merging into the parts table
+        (merge, "upsert_rows", 2),  # after the first chunk went into the parts table
+        (merge.DuplicateFinder, "split", 3),  # while checking a later chunk
+        (merge, "count_changes", 1),  # after every chunk was written
+        (merge, "_upsert_sql", 2),  # building the statement of the second chunk
         (reading, "_validate", 3),  # while reading a later chunk
     ],
 )
@@ -65,7 +66,7 @@ def test_failure_midway_leaves_the_catalog_unchanged(
 def test_interruption_leaves_the_catalog_unchanged(db_file, write_csv, catalog_dump, monkeypatch):
     import_catalog(db_file, [SMALL], "inductor")
     before = catalog_dump(db_file)
-    _fail_on_call(monkeypatch, merge, "stage_rows", 2, KeyboardInterrupt)
+    _fail_on_call(monkeypatch, merge, "upsert_rows", 2, KeyboardInterrupt)
     with pytest.raises(KeyboardInterrupt):
         import_catalog(db_file, [_changed_copy(write_csv)], "inductor", chunk_rows=2)
     assert catalog_dump(db_file) == before
@@ -73,8 +74,8 @@ def test_interruption_leaves_the_catalog_unchanged(db_file, write_csv, catalog_d
 
 def test_failure_in_the_second_file_undoes_the_first(db_file, write_csv, catalog_dump, monkeypatch):
     before = catalog_dump(db_file)
-    # merge_stage runs once per file; the second call fails after the first file merged
-    _fail_on_call(monkeypatch, merge, "merge_stage", 2)
+    # count_changes runs once per file; the second call fails after the first file is written
+    _fail_on_call(monkeypatch, merge, "count_changes", 2)
     with pytest.raises(Injected):
         import_catalog(db_file, [SMALL, _changed_copy(write_csv)], "inductor")
     assert catalog_dump(db_file) == before
@@ -83,7 +84,7 @@ def test_failure_in_the_second_file_undoes_the_first(db_file, write_csv, catalog
 def test_after_a_failure_the_same_import_succeeds(db_file, write_csv, monkeypatch):
     import_catalog(db_file, [SMALL], "inductor")
     changed = _changed_copy(write_csv)
-    _fail_on_call(monkeypatch, merge, "stage_rows", 1)
+    _fail_on_call(monkeypatch, merge, "upsert_rows", 1)
     with pytest.raises(Injected):
         import_catalog(db_file, [changed], "inductor")
     monkeypatch.undo()

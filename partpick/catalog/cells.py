@@ -16,7 +16,7 @@ import pandas as pd
 
 from partpick.errors import UnitError
 from partpick.fields import Field, fold_text
-from partpick.units import dimension_name, is_missing, parse_quantity
+from partpick.units import MISSING_MARKERS, dimension_name, is_missing, parse_quantity
 
 # Words that answer a yes/no field such as ``shielded``; folded with fold_text.
 # "semi-shielded" is not fully shielded, so a filter asking for shielded parts must not pass it.
@@ -42,51 +42,82 @@ def convert_column(
     cells: pd.Series, f: Field, *, scale: float = 1.0, decimal_comma: bool = False
 ) -> ColumnValues:
     """Return the typed values of ``cells`` (text) for field ``f``."""
+    if f.type == "text":
+        return _texts(cells)
     codes, uniques = pd.factorize(cells, use_na_sentinel=False)
-    texts = [str(u) for u in uniques]
+    texts = ["" if u is None else str(u) for u in uniques.tolist()]
     if f.type in ("float", "int"):
         parsed, reasons = _numbers(texts, f, scale, decimal_comma)
     elif f.type == "enum":
         parsed, reasons = _enums(texts, f)
-    elif f.type == "bool":
-        parsed, reasons = _bools(texts, f)
     else:
-        parsed, reasons = _texts(texts)
+        parsed, reasons = _bools(texts, f)
     reason_array = np.asarray(reasons, dtype=object)
     bad_unique = np.asarray([r is not None for r in reasons], dtype=bool)
     return ColumnValues(parsed[codes], bad_unique[codes], reason_array[codes])
 
 
+# A plain number and a unit without digits ("4.7 uH", "45 mΩ max", "3.2"): the common cell.
+# Its value is number × (value of "1 <unit>"), so each distinct unit text is parsed once.
+# Everything else (ranges, letter codes, tolerances, commas, currency signs) goes through
+# parse_quantity whole; both paths give the same result (tests/test_import_cells.py).
+_SIMPLE_RE = r"^\s*([+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?)\s*([^\d,]*?)\s*$"
+
+
 def _numbers(
     texts: list[str], f: Field, scale: float, decimal_comma: bool
 ) -> tuple[np.ndarray, list]:
-    parsed = np.full(len(texts), math.nan)
+    parsed, simple = _simple_numbers(texts, f, scale, decimal_comma)
     reasons: list[str | None] = [None] * len(texts)
-    for i, text in enumerate(texts):
+    for i in np.flatnonzero(~simple):
         try:
-            value = parse_quantity(text, f.unit, scale=scale, decimal_comma=decimal_comma)
+            parsed[i] = parse_quantity(texts[i], f.unit, scale=scale, decimal_comma=decimal_comma)
         except UnitError as exc:
             reasons[i] = exc.reason
-            continue
-        value, reasons[i] = _check_range(value, f)
-        parsed[i] = value
-    return parsed, reasons
+    return _check_ranges(parsed, reasons, f)
 
 
-def _check_range(value: float, f: Field) -> tuple[float, str | None]:
-    if math.isnan(value):
-        return value, None
-    if math.isinf(value):
-        return math.nan, "not a finite number"
-    if f.magnitude:
-        value = abs(value)
-    if f.positive and value <= 0:
-        return math.nan, f"{dimension_name(f.unit)} must be greater than zero"
-    if value < 0 and f.unit not in _SIGNED_UNITS:
-        return math.nan, f"{dimension_name(f.unit)} cannot be negative"
-    if f.type == "int" and value != math.floor(value):
-        return math.nan, "must be a whole number"
-    return value, None
+def _simple_numbers(
+    texts: list[str], f: Field, scale: float, decimal_comma: bool
+) -> tuple[np.ndarray, np.ndarray]:
+    """Return values of the plain "number unit" texts and a mask of the texts it read."""
+    parts = pd.Series(texts, dtype=object).str.extract(_SIMPLE_RE)
+    numbers = pd.to_numeric(parts[0], errors="coerce").to_numpy(dtype=float)
+    suffixes = parts[1].fillna("").to_numpy(dtype=object)
+    factors = np.full(len(texts), math.nan)
+    for suffix in pd.unique(suffixes[~np.isnan(numbers)]):
+        if suffix == "" and f.unit == "fraction":
+            continue  # a bare tolerance needs parse_quantity's ambiguity check
+        try:
+            factor = parse_quantity("1 " + suffix, f.unit, scale=scale, decimal_comma=decimal_comma)
+        except UnitError:
+            continue  # parse the whole text, for its exact reason
+        factors[suffixes == suffix] = factor
+    simple = ~np.isnan(numbers) & ~np.isnan(factors)
+    return np.where(simple, numbers * factors, math.nan), simple
+
+
+def _check_ranges(parsed: np.ndarray, reasons: list, f: Field) -> tuple[np.ndarray, list]:
+    """Refuse values no real part has; return the values (NaN where refused) and reasons."""
+    values = np.abs(parsed) if f.magnitude else parsed
+    name = dimension_name(f.unit)
+    with np.errstate(invalid="ignore"):
+        checks = [
+            (np.isinf(values), "not a finite number"),
+            (values <= 0 if f.positive else np.zeros(len(values), bool),
+             f"{name} must be greater than zero"),
+            (values < 0 if f.unit not in _SIGNED_UNITS else np.zeros(len(values), bool),
+             f"{name} cannot be negative"),
+            ((values != np.floor(values)) & ~np.isnan(values) if f.type == "int"
+             else np.zeros(len(values), bool), "must be a whole number"),
+        ]  # fmt: skip
+    values = values.copy()
+    for failed, reason in checks:
+        for i in np.flatnonzero(failed):
+            if reasons[i] is None:
+                reasons[i] = reason
+        values[failed] = math.nan
+    return values, reasons
 
 
 def _enums(texts: list[str], f: Field) -> tuple[np.ndarray, list]:
@@ -116,11 +147,14 @@ def _bools(texts: list[str], f: Field) -> tuple[np.ndarray, list]:
     return parsed, reasons
 
 
-def _texts(texts: list[str]) -> tuple[np.ndarray, list]:
-    parsed = np.empty(len(texts), dtype=object)
-    for i, text in enumerate(texts):
-        parsed[i] = None if is_missing(text) else " ".join(text.split())
-    return parsed, [None] * len(texts)
+def _texts(cells: pd.Series) -> ColumnValues:
+    """Return a text column stripped, None where it holds a missing marker (vectorised)."""
+    stripped = cells.str.strip()
+    missing = stripped.str.lower().isin(MISSING_MARKERS).to_numpy() | stripped.isna().to_numpy()
+    values = stripped.to_numpy(dtype=object, copy=True)
+    values[missing] = None
+    count = len(values)
+    return ColumnValues(values, np.zeros(count, dtype=bool), np.full(count, None, dtype=object))
 
 
 def extra_json(frame: pd.DataFrame, columns: list[tuple[str, object]]) -> np.ndarray:

@@ -11,7 +11,7 @@ from __future__ import annotations
 
 import datetime as dt
 from collections.abc import Callable, Sequence
-from dataclasses import dataclass
+from dataclasses import dataclass, field
 from pathlib import Path
 
 import sqlalchemy as sa
@@ -115,18 +115,10 @@ def _import_one(
 ) -> ImportReport:
     imported_at = dt.datetime.now(dt.UTC).isoformat(timespec="seconds")
     batch_id = _start_batch(conn, item, imported_at)
-    merge.create_stage(conn, item.kind)
-    rejects: list[Reject] = []
-    rows = 0
-    for chunk in read_chunks(item, chunk_rows):
-        merge.stage_rows(conn, item.kind, chunk.rows)
-        rejects.extend(chunk.rejects)
-        rows += chunk.row_count
-        if progress is not None:
-            progress(ImportProgress(item.path, chunk.bytes_done, item.format.size_bytes, rows))
-    rows += sum(r.column == WHOLE_ROW for r in rejects)  # lines pandas skipped as malformed
-    rejects.extend(_reject_duplicates(conn, item))
-    rejects.sort(key=lambda r: r.line)
+    source = (Path(item.path).name, item.format.sha256, imported_at, batch_id)
+    after_id = merge.last_row_id(conn, item.kind)
+    written = _write_chunks(conn, item, source, progress, chunk_rows)
+    rejects = sorted(written.rejects, key=lambda r: r.line)
     rejected = len({r.line for r in rejects})
     if strict and rejects:
         first = rejects[0]
@@ -136,27 +128,79 @@ def _import_one(
             f"line {first.line}, {first.column}: {first.reason}",
             rejects=tuple(rejects),
         )
-    source = (Path(item.path).name, item.format.sha256, imported_at)
-    counts = merge.merge_stage(conn, item.kind, batch_id=batch_id, source=source)
+    counts = merge.count_changes(conn, item.kind, after_id, written.changed, written.kept)
     conn.execute(
         import_batches.update()
         .where(import_batches.c.id == batch_id)
-        .values(
-            rows=rows,
-            added=counts.added,
-            updated=counts.updated,
-            unchanged=counts.unchanged,
-            rejected=rejected,
-        )
-    )
+        .values(rows=written.rows, added=counts.added, updated=counts.updated,
+                unchanged=counts.unchanged, rejected=rejected)
+    )  # fmt: skip
     return ImportReport(
         file=item.path, kind=item.kind, sha256=item.format.sha256, batch_id=batch_id,
-        encoding=item.format.encoding, delimiter=item.format.delimiter, rows=rows,
+        encoding=item.format.encoding, delimiter=item.format.delimiter, rows=written.rows,
         added=counts.added, updated=counts.updated, unchanged=counts.unchanged,
         rejected=rejected, rejects=tuple(rejects), columns=item.plan.matches,
         unrecognised=item.plan.unrecognised, ignored=item.plan.ignored,
         constants=tuple(item.constants),
     )  # fmt: skip
+
+
+@dataclass
+class _Written:
+    """Running totals of one file's chunks."""
+
+    rows: int = 0  # data rows read, malformed ones included
+    kept: int = 0  # rows upserted
+    changed: int = 0  # rows SQLite inserted or changed
+    rejects: list[Reject] = field(default_factory=list)
+
+
+def _write_chunks(
+    conn: sa.Connection,
+    item: PreparedFile,
+    source: tuple[str, str, str, int],
+    progress: ProgressHook | None,
+    chunk_rows: int,
+) -> _Written:
+    written = _Written()
+    bulk = merge.is_empty(conn, item.kind)  # nothing to match: plain inserts, index at the end
+    if bulk:
+        merge.drop_identity_index(conn, item.kind)
+    duplicates = merge.DuplicateFinder(item.kind, source[3])
+    for chunk in read_chunks(item, chunk_rows):
+        if bulk:
+            rows = merge.row_tuples(item.kind, chunk.values, chunk.lines, source)
+            written.changed += merge.insert_rows(conn, item.kind, rows)
+            repeats: list[merge.Duplicate] = []
+        else:
+            rows, repeats = _unique_rows(conn, item, chunk, duplicates, source)
+            written.changed += merge.upsert_rows(conn, item.kind, rows)
+        written.kept += len(rows)
+        written.rows += chunk.row_count + sum(r.column == WHOLE_ROW for r in chunk.rejects)
+        written.rejects += chunk.rejects + _repeat_rejects(item, repeats)
+        if progress is not None:
+            progress(
+                ImportProgress(item.path, chunk.bytes_done, item.format.size_bytes, written.rows)
+            )
+    if bulk:
+        repeats = merge.rebuild_identity_index(conn, item.kind, source[3])
+        written.kept -= len(repeats)
+        written.changed -= len(repeats)
+        written.rejects += _repeat_rejects(item, repeats)
+    return written
+
+
+def _unique_rows(conn, item, chunk, duplicates, source) -> tuple[list[tuple], list]:
+    """Return the chunk's upsert tuples without repeats of earlier rows, and the repeats."""
+    values = chunk.values
+    keep, repeats = duplicates.split(conn, values["manufacturer"], values["mpn"], chunk.lines)
+    kept = {name: column[keep] for name, column in values.items()}
+    return merge.row_tuples(item.kind, kept, chunk.lines[keep], source), repeats
+
+
+def _repeat_rejects(item: PreparedFile, repeats: list) -> list[Reject]:
+    reason = "same manufacturer and part number as line {}"
+    return [Reject(d.line, item.mpn_header, d.mpn, reason.format(d.first_line)) for d in repeats]
 
 
 def _start_batch(conn: sa.Connection, item: PreparedFile, imported_at: str) -> int:
@@ -168,16 +212,6 @@ def _start_batch(conn: sa.Connection, item: PreparedFile, imported_at: str) -> i
         )
     )  # fmt: skip
     return int(result.inserted_primary_key[0])
-
-
-def _reject_duplicates(conn: sa.Connection, item: PreparedFile) -> list[Reject]:
-    duplicates = merge.find_duplicates(conn)
-    merge.drop_lines(conn, [line for line, *_ in duplicates])
-    header = item.mpn_header
-    return [
-        Reject(line, header, mpn, f"same manufacturer and part number as line {first}")
-        for line, _manufacturer, mpn, first in duplicates
-    ]
 
 
 def _refresh_snapshot(db: str | None, kind: str) -> None:

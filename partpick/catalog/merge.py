@@ -1,20 +1,24 @@
-"""Stage one file's rows in a temporary table, then merge them into the parts table in SQL.
+"""Write validated rows into the parts table: duplicates inside a file, then one bulk upsert.
 
-Staging lets SQLite do the heavy work in C: duplicates inside the file, the added / updated /
-unchanged counts, and the upsert are each one statement over the whole file. Everything runs
-on the caller's connection, inside the caller's one transaction.
+Each chunk goes in with one DBAPI ``executemany`` of ``INSERT ... ON CONFLICT DO UPDATE``,
+straight into the parts table, inside the caller's one transaction. A row that matches a
+stored part and carries the same values changes nothing. The counts come from SQLite itself:
+rows added are the new row ids, rows updated are the remaining changes.
 """
 
 from __future__ import annotations
 
+import itertools
 from collections.abc import Sequence
 from dataclasses import dataclass
 
+import numpy as np
+import pandas as pd
 import sqlalchemy as sa
 
-from partpick.catalog.schema import stored_fields, table_name
+from partpick.catalog.schema import identity_index_name, stored_fields, table_name
 
-STAGE = "temp.partpick_stage"
+PROVENANCE = ("source_line", "source_file", "source_sha256", "imported_at", "batch_id")
 
 
 @dataclass(frozen=True)
@@ -26,101 +30,186 @@ class MergeCounts:
     unchanged: int
 
 
+@dataclass(frozen=True)
+class Duplicate:
+    """A row repeating the identity of an earlier row of the same file."""
+
+    line: int
+    mpn: str
+    first_line: int
+
+
 def value_columns(kind: str) -> tuple[str, ...]:
     """Return the columns compared to decide whether a part changed: its fields and ``extra``."""
     return tuple(f.name for f in stored_fields(kind)) + ("extra",)
 
 
-def stage_columns(kind: str) -> tuple[str, ...]:
-    """Return the columns of the staging table, in insert order."""
-    return ("manufacturer", "mpn") + value_columns(kind) + ("source_line",)
+def insert_columns(kind: str) -> tuple[str, ...]:
+    """Return the columns of one upserted row, in tuple order."""
+    return ("kind", "manufacturer", "mpn") + value_columns(kind) + PROVENANCE
 
 
-def create_stage(conn: sa.Connection, kind: str) -> None:
-    """Create an empty staging table for ``kind`` (dropping a leftover one)."""
-    conn.exec_driver_sql(f"DROP TABLE IF EXISTS {STAGE}")
-    columns = ", ".join(f'"{name}"' for name in stage_columns(kind))
-    conn.exec_driver_sql(f"CREATE TEMP TABLE partpick_stage ({columns})")
+class DuplicateFinder:
+    """Find rows of one file whose (manufacturer, mpn) an earlier row already had.
 
-
-def stage_rows(conn: sa.Connection, kind: str, rows: Sequence[tuple]) -> None:
-    """Insert rows (tuples in :func:`stage_columns` order) with one DBAPI executemany."""
-    if not rows:
-        return
-    names = stage_columns(kind)
-    marks = ", ".join("?" for _ in names)
-    conn.exec_driver_sql(f"INSERT INTO {STAGE} VALUES ({marks})", list(rows))
-
-
-def find_duplicates(conn: sa.Connection) -> list[tuple[int, str, str, int]]:
-    """Return (line, manufacturer, mpn, first line) for every repeat of a part inside the file."""
-    conn.exec_driver_sql(
-        "CREATE INDEX temp.partpick_stage_identity "
-        "ON partpick_stage (manufacturer, mpn, source_line)"
-    )
-    rows = conn.exec_driver_sql(
-        f"SELECT s.source_line, s.manufacturer, s.mpn, min(f.source_line) FROM {STAGE} s "
-        f"JOIN {STAGE} f ON f.manufacturer = s.manufacturer AND f.mpn = s.mpn "
-        "AND f.source_line < s.source_line GROUP BY s.source_line ORDER BY s.source_line"
-    ).all()
-    return [tuple(row) for row in rows]
-
-
-def drop_lines(conn: sa.Connection, lines: Sequence[int]) -> None:
-    """Remove staged rows by line number (the repeats found by :func:`find_duplicates`)."""
-    if lines:
-        conn.exec_driver_sql(
-            f"DELETE FROM {STAGE} WHERE source_line = ?", [(line,) for line in lines]
-        )
-
-
-def merge_stage(
-    conn: sa.Connection, kind: str, *, batch_id: int, source: tuple[str, str, str]
-) -> MergeCounts:
-    """Upsert the staged rows into the parts table of ``kind``; return what changed.
-
-    ``source`` is (file name, sha256, import time) for the provenance of new and changed rows.
-    Unchanged rows keep the provenance of the import that last changed them.
+    Inside a chunk the check is exact (pandas). Across chunks, 64-bit hashes of every kept
+    identity are remembered (8 bytes a row, so memory stays small); a hash hit is confirmed
+    against the rows this batch already wrote, so a hash collision never rejects a row.
     """
+
+    def __init__(self, kind: str, batch_id: int) -> None:
+        self.kind = kind
+        self.batch_id = batch_id
+        self._seen = np.empty(0, dtype=np.uint64)
+
+    def split(
+        self, conn: sa.Connection, manufacturer: np.ndarray, mpn: np.ndarray, lines: np.ndarray
+    ) -> tuple[np.ndarray, list[Duplicate]]:
+        """Return a keep-mask for the chunk's rows and the duplicates it found."""
+        frame = pd.DataFrame({"m": manufacturer, "p": mpn, "line": lines})
+        repeated = frame.duplicated(["m", "p"], keep="first").to_numpy()
+        duplicates: list[Duplicate] = []
+        if repeated.any():
+            first = frame.groupby(["m", "p"], sort=False)["line"].transform("min").to_numpy()
+            duplicates += [Duplicate(int(lines[i]), mpn[i], int(first[i]))
+                           for i in np.flatnonzero(repeated)]  # fmt: skip
+        hashes = pd.util.hash_pandas_object(frame[["m", "p"]], index=False).to_numpy()
+        candidates = ~repeated & np.isin(hashes, self._seen)
+        for i in np.flatnonzero(candidates):
+            first_line = self._stored_line(conn, manufacturer[i], mpn[i])
+            if first_line is None:
+                candidates[i] = False  # a hash collision, not a repeat
+            else:
+                duplicates.append(Duplicate(int(lines[i]), mpn[i], first_line))
+        keep = ~(repeated | candidates)
+        self._seen = np.union1d(self._seen, hashes[keep])
+        return keep, duplicates
+
+    def _stored_line(self, conn: sa.Connection, manufacturer: str, mpn: str) -> int | None:
+        return conn.exec_driver_sql(
+            f"SELECT source_line FROM {table_name(self.kind)} "
+            "WHERE kind = ? AND manufacturer = ? AND mpn = ? AND batch_id = ?",
+            (self.kind, manufacturer, mpn, self.batch_id),
+        ).scalar()
+
+
+def last_row_id(conn: sa.Connection, kind: str) -> int:
+    """Return the highest row id of the parts table (0 when empty)."""
+    return conn.exec_driver_sql(f"SELECT coalesce(max(id), 0) FROM {table_name(kind)}").scalar_one()
+
+
+def upsert_rows(conn: sa.Connection, kind: str, rows: Sequence[tuple]) -> int:
+    """Upsert rows (tuples in :func:`insert_columns` order); return the rows inserted or changed."""
+    if not rows:
+        return 0
+    before = conn.exec_driver_sql("SELECT total_changes()").scalar_one()
+    conn.exec_driver_sql(_upsert_sql(kind), list(rows))
+    return conn.exec_driver_sql("SELECT total_changes()").scalar_one() - before
+
+
+def _upsert_sql(kind: str) -> str:
     table = table_name(kind)
-    staged = conn.exec_driver_sql(f"SELECT count(*) FROM {STAGE}").scalar_one()
-    has_parts = conn.exec_driver_sql(f"SELECT EXISTS (SELECT 1 FROM {table})").scalar_one()
-    matched = unchanged = 0
-    if has_parts:
-        matched, unchanged = _count_matches(conn, kind)
-    _upsert(conn, kind, batch_id, source)
-    conn.exec_driver_sql(f"DROP TABLE {STAGE}")
-    return MergeCounts(added=staged - matched, updated=matched - unchanged, unchanged=unchanged)
-
-
-def _same_values(left: str, right: str, kind: str) -> str:
-    return " AND ".join(f'{left}."{c}" IS {right}."{c}"' for c in value_columns(kind))
-
-
-def _count_matches(conn: sa.Connection, kind: str) -> tuple[int, int]:
-    join = (
-        f"FROM {STAGE} s JOIN {table_name(kind)} m ON m.kind = ? "
-        "AND m.manufacturer = s.manufacturer AND m.mpn = s.mpn"
+    names = insert_columns(kind)
+    quoted = ", ".join(f'"{c}"' for c in names)
+    marks = ", ".join("?" for _ in names)
+    updates = ", ".join(f'"{c}" = excluded."{c}"' for c in value_columns(kind) + PROVENANCE)
+    same = " AND ".join(f'{table}."{c}" IS excluded."{c}"' for c in value_columns(kind))
+    return (
+        f"INSERT INTO {table} ({quoted}) VALUES ({marks}) "
+        f"ON CONFLICT (kind, manufacturer, mpn) DO UPDATE SET {updates} WHERE NOT ({same})"
     )
-    row = conn.exec_driver_sql(
-        f"SELECT count(*), coalesce(sum({_same_values('m', 's', kind)}), 0) {join}", (kind,)
-    ).one()
-    return int(row[0]), int(row[1])
 
 
-def _upsert(conn: sa.Connection, kind: str, batch_id: int, source: tuple[str, str, str]) -> None:
-    table = table_name(kind)
-    values = value_columns(kind)
-    provenance = ("source_file", "source_sha256", "imported_at", "batch_id")
-    target = ("kind", "manufacturer", "mpn") + values + ("source_line",) + provenance
-    quoted = ", ".join(f'"{c}"' for c in target)
-    picked = ", ".join(f's."{c}"' for c in ("manufacturer", "mpn") + values + ("source_line",))
-    updates = ", ".join(f'"{c}" = excluded."{c}"' for c in values + ("source_line",) + provenance)
-    # "WHERE true" resolves the parsing ambiguity of INSERT ... SELECT ... ON CONFLICT in SQLite.
+def row_tuples(
+    kind: str, values: dict[str, np.ndarray], lines: np.ndarray, source: tuple[str, str, str, int]
+) -> list[tuple]:
+    """Return the upsert tuples of validated columns; ``source`` is (file, sha256, time, batch)."""
+    columns: list = [
+        itertools.repeat(kind),
+        values["manufacturer"].tolist(),
+        values["mpn"].tolist(),
+    ]
+    for name in value_columns(kind):
+        column = values.get(name)
+        columns.append(itertools.repeat(None) if column is None else column.tolist())
+    columns.append(lines.tolist())
+    columns.extend(itertools.repeat(item) for item in source)
+    return list(zip(*columns, strict=False))
+
+
+def count_changes(
+    conn: sa.Connection, kind: str, after_id: int, changed: int, kept: int
+) -> MergeCounts:
+    """Return added / updated / unchanged for a file whose rows got ids above ``after_id``."""
+    added = conn.exec_driver_sql(
+        f"SELECT count(*) FROM {table_name(kind)} WHERE id > ?", (after_id,)
+    ).scalar_one()
+    return MergeCounts(added=added, updated=changed - added, unchanged=kept - changed)
+
+
+# --- bulk load into an empty table ------------------------------------------------------
+# With no stored part to match, rows go in by plain INSERT without the identity index, and
+# the index is rebuilt at the end in one sorted pass: far cheaper than keeping a B-tree in
+# order row by row. Repeats inside the file are found and removed in SQL before the rebuild.
+
+
+def is_empty(conn: sa.Connection, kind: str) -> bool:
+    """Return True when the parts table of ``kind`` holds no part."""
+    return not conn.exec_driver_sql(f"SELECT EXISTS (SELECT 1 FROM {table_name(kind)})").scalar()
+
+
+def drop_identity_index(conn: sa.Connection, kind: str) -> None:
+    """Drop the identity index for a bulk load (rolled back with the transaction)."""
+    conn.exec_driver_sql(f"DROP INDEX IF EXISTS {identity_index_name(kind)}")
+
+
+def create_identity_index(conn: sa.Connection, kind: str) -> None:
+    """Rebuild the unique identity index after a bulk load."""
     conn.exec_driver_sql(
-        f"INSERT INTO {table} ({quoted}) SELECT ?, {picked}, ?, ?, ?, ? FROM {STAGE} s "
-        "WHERE true ORDER BY s.source_line "
-        f"ON CONFLICT (kind, manufacturer, mpn) DO UPDATE SET {updates} "
-        f"WHERE NOT ({_same_values(table, 'excluded', kind)})",
-        (kind, *source, batch_id),
+        f"CREATE UNIQUE INDEX IF NOT EXISTS {identity_index_name(kind)} "
+        f"ON {table_name(kind)} (kind, manufacturer, mpn)"
     )
+
+
+def insert_rows(conn: sa.Connection, kind: str, rows: Sequence[tuple]) -> int:
+    """Insert rows (tuples in :func:`insert_columns` order) with one executemany; return count."""
+    if rows:
+        names = insert_columns(kind)
+        quoted = ", ".join(f'"{c}"' for c in names)
+        marks = ", ".join("?" for _ in names)
+        conn.exec_driver_sql(
+            f"INSERT INTO {table_name(kind)} ({quoted}) VALUES ({marks})", list(rows)
+        )
+    return len(rows)
+
+
+def remove_repeats(conn: sa.Connection, kind: str, batch_id: int) -> list[Duplicate]:
+    """Delete the later rows of every identity the batch inserted twice; return them."""
+    table = table_name(kind)
+    rows = conn.exec_driver_sql(
+        f"SELECT t.id, t.source_line, t.mpn, f.first FROM {table} t JOIN ("
+        f"SELECT manufacturer, mpn, min(source_line) AS first FROM {table} WHERE batch_id = ? "
+        "GROUP BY manufacturer, mpn HAVING count(*) > 1) f "
+        "ON t.manufacturer = f.manufacturer AND t.mpn = f.mpn "
+        "WHERE t.batch_id = ? AND t.source_line > f.first ORDER BY t.source_line",
+        (batch_id, batch_id),
+    ).all()
+    if rows:
+        conn.exec_driver_sql(f"DELETE FROM {table} WHERE id = ?", [(r[0],) for r in rows])
+    return [Duplicate(int(line), mpn, int(first)) for _id, line, mpn, first in rows]
+
+
+def rebuild_identity_index(conn: sa.Connection, kind: str, batch_id: int) -> list[Duplicate]:
+    """Rebuild the identity index after a bulk load; return the repeats it had to remove.
+
+    The index is tried first (one sorted pass); only when the file repeated an identity does
+    the slower search for repeats run, after which the index is built again.
+    """
+    try:
+        with conn.begin_nested():
+            create_identity_index(conn, kind)
+        return []
+    except sa.exc.IntegrityError:
+        repeats = remove_repeats(conn, kind, batch_id)
+        create_identity_index(conn, kind)
+        return repeats

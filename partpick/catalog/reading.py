@@ -6,7 +6,6 @@ line 2. They count CSV records, so a quoted cell spanning two lines counts once.
 
 from __future__ import annotations
 
-import itertools
 import re
 import warnings
 from collections.abc import Iterator
@@ -18,7 +17,6 @@ import pandas as pd
 
 from partpick.catalog.cells import ColumnValues, convert_column, extra_json
 from partpick.catalog.headers import ColumnMatch, HeaderPlan, MapFile, match_headers
-from partpick.catalog.schema import stored_fields
 from partpick.catalog.sniff import FileFormat, sniff_file
 from partpick.errors import CatalogFormatError, MapFileError
 from partpick.fields import KIND_FIELDS, Field, field_of
@@ -55,9 +53,14 @@ class PreparedFile:
 
 @dataclass(frozen=True)
 class Chunk:
-    """Validated rows of one chunk, in staging-column order, and the rejects found in it."""
+    """The valid rows of one chunk as columns, and the rejects found in it.
 
-    rows: list[tuple]
+    ``values`` maps field names (and ``extra``) to arrays over the valid rows only; a field
+    the file lacks is absent. ``manufacturer`` is always present, "" where unknown.
+    """
+
+    values: dict[str, np.ndarray]
+    lines: np.ndarray
     rejects: list[Reject]
     row_count: int
     bytes_done: int
@@ -238,8 +241,17 @@ def _validate(item: PreparedFile, frame: pd.DataFrame, lines: np.ndarray, done: 
     good = ~bad
     unrecognised = [(h, i) for i, h in enumerate(item.headers) if h in item.plan.unrecognised]
     values["extra"] = extra_json(frame, unrecognised)
-    rows = _row_tuples(item.kind, values, good, lines)
-    return Chunk(rows, rejects, count, done)
+    values["manufacturer"] = _manufacturer(values.get("manufacturer"), count)
+    kept = {name: column[good] for name, column in values.items()}
+    return Chunk(kept, lines[good], rejects, count, done)
+
+
+def _manufacturer(column: np.ndarray | None, count: int) -> np.ndarray:
+    """Return the manufacturer column with "" where unknown (identity needs a value)."""
+    if column is None:
+        return np.full(count, "", dtype=object)
+    column[pd.isna(column)] = ""
+    return column
 
 
 def _convert(frame: pd.DataFrame, match: ColumnMatch, item: PreparedFile) -> ColumnValues:
@@ -265,21 +277,3 @@ def _apply_constants(values: dict[str, np.ndarray], item: PreparedFile, count: i
         else:
             column = values[name]
             column[pd.isna(column)] = value
-
-
-def _row_tuples(
-    kind: str, values: dict[str, np.ndarray], good: np.ndarray, lines: np.ndarray
-) -> list[tuple]:
-    manufacturer = values.get("manufacturer")
-    columns: list = [
-        ["" if m is None else m for m in manufacturer[good].tolist()]
-        if manufacturer is not None
-        else itertools.repeat(""),
-        values["mpn"][good].tolist(),
-    ]
-    for f in stored_fields(kind):
-        column = values.get(f.name)
-        columns.append(itertools.repeat(None) if column is None else column[good].tolist())
-    columns.append(values["extra"][good].tolist())
-    columns.append(lines[good].tolist())
-    return list(zip(*columns, strict=False))

@@ -18,12 +18,12 @@ from sqlalchemy import (
     Column,
     Float,
     ForeignKey,
+    Index,
     Integer,
     MetaData,
     String,
     Table,
     Text,
-    UniqueConstraint,
 )
 
 from partpick.fields import KINDS, PROVENANCE_COLUMNS, Field, fields_of
@@ -58,6 +58,11 @@ catalog_meta = Table(
 def table_name(kind: str) -> str:
     """Return the name of the parts table of ``kind``."""
     return f"parts_{kind}"
+
+
+def identity_index_name(kind: str) -> str:
+    """Return the name of the unique index on (kind, manufacturer, mpn) of ``kind``'s table."""
+    return f"uq_{kind}_identity"
 
 
 def stored_fields(kind: str) -> tuple[Field, ...]:
@@ -103,7 +108,9 @@ def _parts_table(kind: str) -> Table:
         Column("extra", Text),
         *provenance.values(),
         Column("batch_id", Integer, ForeignKey("import_batches.id")),
-        UniqueConstraint(*IDENTITY_COLUMNS, name=f"uq_{kind}_identity"),
+        # A named unique index rather than a table constraint, so a bulk load into an empty
+        # table can drop it and rebuild it in one sorted pass (same transaction).
+        Index(identity_index_name(kind), *IDENTITY_COLUMNS, unique=True),
         CheckConstraint(f"kind = '{kind}'", name=f"ck_{kind}_kind"),
         *_enum_checks(kind),
     )
