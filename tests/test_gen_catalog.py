@@ -5,10 +5,13 @@ from __future__ import annotations
 import importlib.util
 import math
 import sys
+import tempfile
 from pathlib import Path
 
 import numpy as np
 import pytest
+from hypothesis import given, settings
+from hypothesis import strategies as st
 
 from partpick.catalog.columns import read_columns
 from partpick.catalog.importer import import_catalog
@@ -180,3 +183,17 @@ def test_cli_all_writes_one_file_per_kind(tmp_path):
     for kind in KINDS:
         lines = (tmp_path / f"{kind}s.csv").read_text(encoding="utf-8-sig").splitlines()
         assert len(lines) == 51
+
+
+@settings(max_examples=12, deadline=None)
+@given(
+    kind=st.sampled_from(KINDS),
+    layout=st.sampled_from(["clean", "messy"]),
+    seed=st.integers(0, 2**31 - 1),
+)
+def test_any_seed_gives_a_file_the_importer_takes_whole(kind, layout, seed):
+    with tempfile.TemporaryDirectory() as folder:
+        path = gen.write_catalog(gen.generate(kind, 400, seed, layout), Path(folder) / "g.csv",
+                                 layout)  # fmt: skip
+        report = import_catalog(str(Path(folder) / "g.db"), [path], kind)[0]
+    assert (report.added, report.rejected) == (400, 0), report.rejects[:3]
