@@ -123,6 +123,7 @@ def test_explain_json(db):
         (("--role", "resistor"), "no role 'resistor'"),
         (("--role", "diode", "--profile", "nope"), "profile nope"),
         (("--role", "inductor", "--explain", "NO-SUCH"), "no inductor part 'NO-SUCH'"),
+        (("--role", "diode", "--explain", "BP-476-Y"), "It is a capacitor; use --role input-cap"),
         (("--role", "inductor", "--vin-min", "-3"), "vin_min"),
         (("--role", "inductor", "--rank", "beauty"), "beauty"),
         (("--role", "inductor", "--format", "xml"), "xml"),

@@ -189,14 +189,24 @@ def explain(
     screen, envelope = screen_role(db, spec, role, profile=profile, max_parallel=max_parallel)
     hits = np.flatnonzero(screen.columns["mpn"] == mpn)
     if hits.size == 0:
-        kind = screen.kind
-        raise NotFoundError(f"{kind} part", mpn, "Check the mpn and the --role.")
+        raise NotFoundError(f"{screen.kind} part", mpn, _where_else(db, mpn, screen.kind))
     i = int(hits[0])
     status = int(classify(screen)[i])
     return Explanation(
         role, profile, envelope, outcome_at(screen, i, status), screen.operating_point,
         max_parallel,
     )  # fmt: skip
+
+
+def _where_else(db: str | None, mpn: str, kind: str) -> str:
+    """Return a hint naming the roles that could take ``mpn`` if it is a part of another kind."""
+    from partpick.catalog.columns import read_columns
+
+    for other in dict.fromkeys(ROLE_KINDS.values()):
+        if other != kind and np.any(read_columns(db, other, ["mpn"])["mpn"] == mpn):
+            roles = [r for r, k in ROLE_KINDS.items() if k == other]
+            return f"It is a {other}; use --role {' or --role '.join(roles)}."
+    return "Check the mpn (see 'partpick parts')."
 
 
 def classify(screen: Screen) -> np.ndarray:
