@@ -28,9 +28,9 @@ from partpick.verify.orbit import (
     Orbit,
     boost_circuit,
     orbit,
-    regulated_orbit,
     second_moment,
 )
+from partpick.verify.regulation import regulated_orbit
 from partpick.verify.sampling import sample_segment, segment_extremes
 from partpick.verify.stage import Stage
 
