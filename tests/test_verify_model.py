@@ -340,6 +340,16 @@ def test_unreachable_output_is_reported_not_raised():
     assert result.vout_avg_v < 12.0 * 1.6
 
 
+def test_a_dcm_output_below_the_input_is_flagged_as_outside_the_model():
+    # With the ringing stage at D = 0.02 into 10 Ω the output averages about 2.2 V from 5 V
+    # in, so while iL rests at zero vo < Vin − V_F and the diode would conduct again
+    # (Kirchhoff: the switch node sits at Vin when the inductor carries no current).
+    result = steady_state(RINGING_STAGE, 5.0, 10.0, duty=0.02)
+    assert result.mode == "dcm"
+    assert result.diode_would_reconduct
+    assert not steady_state(DCM_STAGE, 12.0, 100.0, duty=0.3).diode_would_reconduct
+
+
 # ---------------------------------------------------------------- the stage validates itself
 
 

@@ -122,6 +122,12 @@ def warning_sentence(warning: VerifyWarning) -> str:
             f"efficiency {value * 100:.1f} % is far from the {limit * 100:.1f} % estimate the "
             "design used; rerun with --efficiency set to it"
         )
+    elif warning.code == "diode-reconducts":
+        text = (
+            f"the output falls to {format_eng(value, 'V')}, below Vin − Vf "
+            f"({format_eng(limit, 'V')}), while the inductor current rests at zero; the diode "
+            "would conduct again, which this model leaves out: the figures here are not reliable"
+        )
     else:  # a code added to the core before its sentence: still show the facts
         text = f"{warning.code}: {value:g} (limit {limit})"
     return f"{where}: {text}"

@@ -80,6 +80,19 @@ class SteadyState:
     pout_w: float
     losses_w: dict[str, float]
     orbit: Orbit = field(repr=False)
+    idle_vout_min_v: float | None = None
+
+    @property
+    def diode_would_reconduct(self) -> bool:
+        """True where vo falls below Vin − V_F while iL rests at zero (DCM).
+
+        The diode would then conduct again, which the three-interval model leaves out; it
+        happens only with an output ripple comparable to Vout − Vin.
+        """
+        if self.idle_vout_min_v is None:
+            return False
+        stage = self.orbit.circuit.stage
+        return self.idle_vout_min_v < self.vin_v - stage.diode_vf_v
 
     @property
     def vout_ripple_v(self) -> float:
@@ -142,7 +155,7 @@ def analyse_orbit(solved: Orbit, *, regulated: bool) -> SteadyState:
     )
     conduction = _conduction_losses(circuit, moments)
     formula = _formula_losses(solved)
-    low, high = _extremes(solved)
+    low, high, idle_low = _extremes(solved)
     return SteadyState(
         vin_v=circuit.vin_v,
         load_ohm=circuit.load_ohm,
@@ -161,6 +174,7 @@ def analyse_orbit(solved: Orbit, *, regulated: bool) -> SteadyState:
         pout_w=float(pout),
         losses_w={k: float({**conduction, **formula}[k]) for k in LOSS_KEYS},
         orbit=solved,
+        idle_vout_min_v=idle_low,
     )
 
 
@@ -234,19 +248,21 @@ def _formula_losses(solved: Orbit) -> dict[str, float]:
     }
 
 
-def _extremes(solved: Orbit) -> tuple[np.ndarray, np.ndarray]:
-    """Return ([min iL, min vo], [max iL, max vo]) over the period.
+def _extremes(solved: Orbit) -> tuple[np.ndarray, np.ndarray, float | None]:
+    """Return ([min iL, min vo], [max iL, max vo], min vo while idle or None) over the period.
 
     Each interval is sampled exactly and every turning point between samples is refined
     (:mod:`partpick.verify.sampling`), so interior peaks (vo peaks inside the off interval
     where iC crosses zero) are found, not sampled.
     """
     circuit = solved.circuit
-    lows, highs = [], []
+    lows, highs, idle_low = [], [], None
     for segment in solved.segments:
         rows = np.vstack([_IL_ROW, circuit.vout_rows[segment.name]])
         system = circuit.systems[segment.name]
         low, high = segment_extremes(system, segment.z_start, segment.duration_s, rows)
         lows.append(low)
         highs.append(high)
-    return np.min(lows, axis=0), np.max(highs, axis=0)
+        if segment.name == "idle":
+            idle_low = float(low[1])
+    return np.min(lows, axis=0), np.max(highs, axis=0), idle_low

@@ -32,6 +32,7 @@ WARNING_CODES: tuple[str, ...] = (
     "dcm-where-ccm-assumed",
     "high-duty",
     "efficiency-off-estimate",
+    "diode-reconducts",
 )
 
 
@@ -220,6 +221,9 @@ def _point_warnings(
         found.append(warn("dcm-where-ccm-assumed", point.iout_a, ccm_floor_a, "A"))
     if regulated and s.duty > HIGH_DUTY:
         found.append(warn("high-duty", s.duty, HIGH_DUTY, "fraction"))
+    if s.diode_would_reconduct:
+        limit = s.vin_v - result.state.orbit.circuit.stage.diode_vf_v
+        found.append(warn("diode-reconducts", s.idle_vout_min_v, limit, "V"))
     full_load = point.iout_a >= spec.iout_a * (1.0 - 1e-9)
     if full_load and abs(s.efficiency - estimate) > EFFICIENCY_TOLERANCE:
         found.append(warn("efficiency-off-estimate", s.efficiency, estimate, "fraction"))
