@@ -133,6 +133,8 @@ def test_missing_esr_is_a_clear_error(catalog):
         ([*PARTS, "--vin", "-3"], "--vin"),
         ([*PARTS, "--plot", "stage.pdf"], ".png or .svg"),
         ([*PARTS, "--dcr", "lots"], "lots"),
+        ([*PARTS, "--bom", "bom.json"], "--bom"),
+        (["--bom", "missing.json"], "missing.json"),
     ],
 )
 def test_bad_input_exits_2_with_one_line(catalog, args, message, tmp_path, monkeypatch):
