@@ -14,7 +14,9 @@ response, from the matrix exponential of the augmented system), and its integral
 periodic condition x(T) = x(0) is solved directly as a 2 × 2 linear system; in DCM the
 inductor current starts each period at zero, so only vC(0) is unknown, and the instant the
 current reaches zero is found with a bracketed root finder. Power figures are exact integrals
-of quadratic forms of z (Van Loan's block exponential), so the energy balance closes.
+of quadratic forms of z (one block exponential of F ⊗ I + I ⊗ F, after [VL]), so the energy
+balance closes. Regulation, the duty for a target output, is in
+:mod:`partpick.verify.regulation`.
 
 References
 ----------
