@@ -389,3 +389,19 @@ def test_stage_bank_figures():
     assert CCM_STAGE.rds_on_hot_ohm == pytest.approx(0.03)
     # Qgd / Ig: 4 nC / 1 A = 4 ns (Graovac, Pürschel and Kiep, section 3)
     assert CCM_STAGE.transition_time_s == pytest.approx(4e-9)
+
+
+def test_single_blas_thread_restores_the_thread_counts():
+    # common practice, no published source: small-matrix work runs best on one BLAS thread;
+    # the setting must not leak out of the solver.
+    from partpick.verify.blas import _controls, single_blas_thread
+
+    with single_blas_thread():
+        controls = _controls()
+        inside = [int(get()) for get, _ in controls]
+    if not controls:
+        pytest.skip("no OpenBLAS loaded in this process")
+    before = [int(get()) for get, _ in controls]
+    with single_blas_thread():
+        assert inside == [1] * len(controls)
+    assert [int(get()) for get, _ in controls] == before
