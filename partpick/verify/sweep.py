@@ -136,7 +136,7 @@ class VerifyResult:
 def default_points(
     spec: Any, extra_vin_v: Iterable[float] = (), extra_iout_a: Iterable[float] = ()
 ) -> tuple[OperatingPoint, ...]:
-    """Return every input voltage at every load, in order of input voltage then load.
+    """Return every input voltage at every load: Vin ascending, then load heaviest first.
 
     Input voltages: vin_min, the midpoint, vin_max and ``extra_vin_v``. Loads: iout,
     iout_min where the spec has one, and ``extra_iout_a``. Duplicates are dropped.
