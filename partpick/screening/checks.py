@@ -17,7 +17,7 @@ PASS, FAIL, UNVERIFIED, SKIPPED = 0, 1, 2, 3
 STATUS_TEXT = {PASS: "pass", FAIL: "fail", UNVERIFIED: "unverified"}
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, slots=True)
 class Check:
     """One rule applied to one part. ``limit`` = ``derating`` × ``rating`` for a use rule."""
 
@@ -37,7 +37,7 @@ class Check:
             raise ValueError(f"check {self.rule}: unknown status {self.status!r}")
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, slots=True)
 class Outcome:
     """One part for one role: its status, the count in parallel, and every check made."""
 
@@ -113,6 +113,40 @@ class RuleResult:
             status=STATUS_TEXT[code],
             missing=missing if code == UNVERIFIED else (),
         )
+
+    def checks_for(self, indices: np.ndarray) -> list[Check | None]:
+        """Return the Check of each part in ``indices`` (None where the rule does not apply).
+
+        The same as :meth:`check_at` per part, but converts each array to Python once, so
+        materialising every part of a large catalog stays linear and cheap.
+        """
+        status = self.status[indices].tolist()
+        numbers = [
+            python_floats(a[indices])
+            for a in (
+                self.stress, self.limit, self.rating, self.derating, self.utilisation,
+                self.worst_vin_v,
+            )
+        ]  # fmt: skip
+        lacking = [(name, mask[indices].tolist()) for name, mask in self.missing]
+        out: list[Check | None] = []
+        for j, code in enumerate(status):
+            if code == SKIPPED:
+                out.append(None)
+                continue
+            missing = tuple(n for n, m in lacking if m[j]) if code == UNVERIFIED else ()
+            out.append(
+                Check(
+                    self.rule, numbers[0][j], numbers[1][j], numbers[2][j], numbers[3][j],
+                    numbers[4][j], numbers[5][j], self.unit, STATUS_TEXT[code], missing,
+                )
+            )  # fmt: skip
+        return out
+
+
+def python_floats(values: np.ndarray) -> list[float | None]:
+    """Return a float array as a list of Python floats, None for NaN."""
+    return [None if v != v else v for v in values.tolist()]
 
 
 def _scalar(value: float) -> float | None:

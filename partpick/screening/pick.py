@@ -15,7 +15,14 @@ import numpy as np
 from partpick.errors import NotFoundError, ProfileError
 from partpick.fields import fields_of
 from partpick.screening import capacitor, diode, inductor, switch
-from partpick.screening.checks import FAIL, UNVERIFIED, Check, Outcome, Screen, core_data_rule
+from partpick.screening.checks import (
+    FAIL,
+    UNVERIFIED,
+    Outcome,
+    Screen,
+    core_data_rule,
+    python_floats,
+)
 from partpick.screening.profiles import Profile
 from partpick.screening.roles import ROLE_KINDS, ROLES
 
@@ -146,9 +153,9 @@ def pick(
     lists = {}
     for code in (_PASSED, _UNVERIFIED):
         order = ranked(np.flatnonzero(status == code), keys, screen.columns["mpn"], top)
-        lists[code] = [outcome_at(screen, int(i), code) for i in order]
+        lists[code] = outcomes_at(screen, order, code)
     failed_order = closest_failures(screen, np.flatnonzero(status == _FAILED), top)
-    lists[_FAILED] = [outcome_at(screen, int(i), _FAILED) for i in failed_order]
+    lists[_FAILED] = outcomes_at(screen, failed_order, _FAILED)
     return PickResult(
         role=role,
         profile=profile,
@@ -193,7 +200,7 @@ def explain(
     i = int(hits[0])
     status = int(classify(screen)[i])
     return Explanation(
-        role, profile, envelope, outcome_at(screen, i, status), screen.operating_point,
+        role, profile, envelope, outcomes_at(screen, hits[:1], status)[0], screen.operating_point,
         max_parallel,
     )  # fmt: skip
 
@@ -284,48 +291,57 @@ def closest_failures(screen: Screen, indices: np.ndarray, top: int | None) -> np
     return ranked(indices, (closeness,), screen.columns["mpn"], top)
 
 
+def outcomes_at(screen: Screen, indices: np.ndarray, code: int) -> list[Outcome]:
+    """Return the Outcome of each part in ``indices``, all with outcome ``code``.
+
+    Each column is converted to Python once for the whole list, so materialising every part
+    of a large catalog (``top=None``) costs a few microseconds per check.
+    """
+    indices = np.asarray(indices, dtype=np.intp)
+    per_rule = [rule.checks_for(indices) for rule in screen.rules]
+    cols = {name: _python_list(values[indices]) for name, values in screen.columns.items()}
+    count = screen.count[indices].tolist()
+    loss = python_floats(screen.loss_w[indices])
+    area = python_floats(
+        screen.columns["length_mm"][indices] * screen.columns["width_mm"][indices]
+        * screen.count[indices]
+    )  # fmt: skip
+    notes = [(text, mask[indices].tolist()) for text, mask in screen.notes]
+    names = list(cols)
+    rows = zip(*(cols[n] for n in names), strict=True) if names else ()
+    status = ("passed", "unverified", "failed")[code]
+    out = []
+    for j, row in enumerate(rows):
+        checks = tuple(c for c in (r[j] for r in per_rule) if c is not None)
+        price = cols["unit_price"][j]
+        out.append(
+            Outcome(
+                mpn=str(cols["mpn"][j]),
+                manufacturer=""
+                if cols["manufacturer"][j] is None
+                else str(cols["manufacturer"][j]),
+                role=screen.role,
+                status=status,
+                count=count[j],
+                loss_w=loss[j],
+                unit_price=price,
+                cost=None if price is None else price * count[j],
+                area_mm2=area[j],
+                checks=checks,
+                notes=tuple(text for text, mask in notes if mask[j]),
+                missing=tuple(dict.fromkeys(m for c in checks for m in c.missing)),
+                part=dict(zip(names, row, strict=True)),
+            )
+        )
+    return out
+
+
 def outcome_at(screen: Screen, i: int, code: int) -> Outcome:
-    """Return the Outcome of part ``i`` with every check that applies to it."""
-    checks: list[Check] = []
-    for rule in screen.rules:
-        check = rule.check_at(i)
-        if check is not None:
-            checks.append(check)
-    missing = tuple(dict.fromkeys(m for c in checks for m in c.missing))
-    cols = screen.columns
-    count = int(screen.count[i])
-    area = cols["length_mm"][i] * cols["width_mm"][i] * count
-    return Outcome(
-        mpn=str(cols["mpn"][i]),
-        manufacturer=_text(cols["manufacturer"][i]),
-        role=screen.role,
-        status=("passed", "unverified", "failed")[code],
-        count=count,
-        loss_w=_number(screen.loss_w[i]),
-        unit_price=_number(cols["unit_price"][i]),
-        cost=_number(cols["unit_price"][i] * count),
-        area_mm2=_number(area),
-        checks=tuple(checks),
-        notes=tuple(text for text, mask in screen.notes if mask[i]),
-        missing=missing,
-        part={name: _value(values[i]) for name, values in cols.items()},
-    )
+    """Return the Outcome of part ``i`` (see :func:`outcomes_at`)."""
+    return outcomes_at(screen, np.array([i]), code)[0]
 
 
-def _number(value) -> float | None:
-    value = float(value)
-    return None if np.isnan(value) else value
-
-
-def _text(value) -> str:
-    return "" if value is None else str(value)
-
-
-def _value(value) -> object:
-    if isinstance(value, np.floating):
-        return _number(value)
-    if isinstance(value, np.integer):
-        return int(value)
-    if isinstance(value, np.bool_):
-        return bool(value)
-    return value
+def _python_list(values: np.ndarray) -> list[object]:
+    if values.dtype.kind == "f":
+        return python_floats(values)
+    return values.tolist()  # object, int and bool arrays give Python values already
