@@ -261,3 +261,12 @@ def test_nan_never_reaches_the_catalog_as_a_number(db_file):
     import_catalog(db_file, [SMALL], "inductor")
     srf = read_columns(db_file, "inductor", ["srf_hz"])["srf_hz"]
     assert sum(math.isnan(v) for v in srf) == 1  # only the drum core lacks an SRF
+
+
+def test_short_row_reads_its_missing_cells_as_missing(db_file, write_csv):
+    text = f"{HEADER}\n{GOOD_ROW.format(n=1)}\nQM-2,Quillmark Magnetics,10 uH\n"
+    (report,) = import_catalog(db_file, [write_csv(text)], "inductor")
+    assert (report.added, report.rejected) == (2, 0)
+    part = _by_mpn(db_file)["QM-2"]
+    assert part["inductance_h"] == pytest.approx(10e-6)
+    assert part["isat_a"] is None and part["shielded"] is None and part["lifecycle"] is None

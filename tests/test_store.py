@@ -166,7 +166,7 @@ def test_stale_snapshot_is_rebuilt(db_file, write_csv, monkeypatch):
     import_catalog(db_file, [SMALL], "inductor")
     from partpick.catalog import importer
 
-    monkeypatch.setattr(importer, "_refresh_snapshot", lambda db, kind: None)  # leave it stale
+    monkeypatch.setattr(importer, "_refresh_snapshot", lambda *args: None)  # leave it stale
     text = SMALL.read_text(encoding="utf-8").replace("4.6 A", "5.0 A")
     import_catalog(db_file, [write_csv(text)], "inductor")
     assert read_columns(db_file, "inductor", ["isat_a"])["isat_a"][2] == pytest.approx(5.0)
@@ -222,3 +222,44 @@ def test_fresh_snapshot_read_imports_neither_pandas_nor_sqlalchemy(db_file):
     out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, env=env)
     assert out.returncode == 0, out.stderr
     assert json.loads(out.stdout) == [6, False, False]
+
+
+def _same_columns(left: dict, right: dict) -> bool:
+    if list(left) != list(right):
+        return False
+    for name in left:
+        a, b = left[name], right[name]
+        if a.dtype != b.dtype or len(a) != len(b):
+            return False
+        if a.dtype == np.float64:
+            if not np.array_equal(a, b, equal_nan=True):
+                return False
+        elif list(a) != list(b):
+            return False
+    return True
+
+
+@pytest.mark.parametrize(
+    "extra_lines",
+    [
+        "",  # a clean bulk load: the snapshot comes from the import's own columns
+        "QM-1R0-0630,Quillmark Magnetics,again,1.0 uH,±20%,9.5 A,8.0 A,8.5 mOhm,90 MHz,0630,"
+        "7.0 mm,6.6 mm,3.0 mm,Yes,$0.31,5200,Active\n",  # a repeat: rebuilt from the table
+    ],
+)
+def test_snapshot_written_at_import_equals_one_rebuilt_from_the_table(
+    db_file, write_csv, extra_lines
+):
+    path = write_csv(SMALL.read_text(encoding="utf-8") + extra_lines)
+    import_catalog(db_file, [path], "inductor", chunk_rows=4)
+    from_import = read_columns(db_file, "inductor")
+    snapshot_file(Path(db_file), "inductor").unlink()
+    rebuilt = read_columns(db_file, "inductor")
+    assert len(rebuilt["mpn"]) == 6
+    assert _same_columns(from_import, rebuilt)
+
+
+def test_no_spill_files_are_left_behind(db_file, write_csv):
+    import_catalog(db_file, [SMALL], "inductor")
+    folder = snapshot_file(Path(db_file), "inductor").parent
+    assert [p.name for p in folder.iterdir()] == ["inductor.npz"]

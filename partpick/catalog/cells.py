@@ -7,6 +7,7 @@ field's aliases, and the results are spread back with an array take. No per-cell
 
 from __future__ import annotations
 
+import itertools
 import json
 import math
 from dataclasses import dataclass
@@ -26,7 +27,14 @@ BOOL_WORDS: dict[str, bool] = {
     **dict.fromkeys(("semi shielded", "semishielded", "semi", "partial"), False),
 }
 _BOOL_FOLDED = {fold_text(k): v for k, v in BOOL_WORDS.items()}
-_SIGNED_UNITS = frozenset({"degC"})  # temperatures are the only ratings below zero
+_SIGNED_UNITS = frozenset({"degC"})
+# Every upper/lower-case spelling of the missing markers, so a text column is checked with
+# one hash lookup per cell instead of lower-casing it first.
+_MISSING_SPELLINGS = frozenset(
+    "".join(letters)
+    for marker in MISSING_MARKERS
+    for letters in itertools.product(*({c.lower(), c.upper()} for c in marker))
+)  # temperatures are the only ratings below zero
 
 
 @dataclass(frozen=True)
@@ -150,7 +158,7 @@ def _bools(texts: list[str], f: Field) -> tuple[np.ndarray, list]:
 def _texts(cells: pd.Series) -> ColumnValues:
     """Return a text column stripped, None where it holds a missing marker (vectorised)."""
     stripped = cells.str.strip()
-    missing = stripped.str.lower().isin(MISSING_MARKERS).to_numpy() | stripped.isna().to_numpy()
+    missing = stripped.isin(_MISSING_SPELLINGS).to_numpy() | stripped.isna().to_numpy()
     values = stripped.to_numpy(dtype=object, copy=True)
     values[missing] = None
     count = len(values)

@@ -11,21 +11,23 @@ pandas nor SQLAlchemy unless the catalog is not an SQLite file.
 from __future__ import annotations
 
 import contextlib
-import os
 import sqlite3
-import tempfile
 from collections.abc import Sequence
 from pathlib import Path
 
 import numpy as np
 
 from partpick.catalog.location import resolve_db_url, snapshot_file, sqlite_file
+from partpick.catalog.snapshot import (
+    META,
+    MISSING,
+    SNAPSHOT_VERSION,
+    decode_field,
+    encode_rows,
+    save_members,
+)
 from partpick.errors import DatabaseError, NotFoundError
 from partpick.fields import KINDS, Field, fields_of
-
-SNAPSHOT_VERSION = "1"
-_META = "__meta__"
-_MISSING = "__missing__"
 
 
 def read_columns(
@@ -48,7 +50,7 @@ def read_columns(
     arrays = _load_snapshot(snapshot_file(path, kind), stamp, wanted)
     if arrays is None:
         arrays = write_snapshot(url, kind)
-    return {f.name: _decode(arrays, f) for f in wanted}
+    return {f.name: decode_field(arrays, f) for f in wanted}
 
 
 def _wanted_fields(kind: str, names: Sequence[str] | None) -> list[Field]:
@@ -102,10 +104,10 @@ def _load_snapshot(file: Path, stamp: tuple[str, str], wanted: list[Field]) -> d
     except (OSError, ValueError):
         return None
     with archive:
-        meta = archive[_META].tolist() if _META in archive.files else []
+        meta = archive[META].tolist() if META in archive.files else []
         if meta != [stamp[0], stamp[1], SNAPSHOT_VERSION]:
             return None
-        keys = [f.name for f in wanted] + [_MISSING + f.name for f in wanted]
+        keys = [f.name for f in wanted] + [MISSING + f.name for f in wanted]
         if any(f.name not in archive.files for f in wanted):
             return None
         return {k: archive[k] for k in keys if k in archive.files}
@@ -127,54 +129,10 @@ def write_snapshot(url: str, kind: str) -> dict[str, np.ndarray]:
         names = ", ".join(f'"{f.name}"' for f in fields)
         rows = conn.execute(f"SELECT {names} FROM parts_{kind} ORDER BY id").fetchall()
         conn.execute("COMMIT")
-    arrays = encode_columns(fields, rows)
-    arrays[_META] = np.array([meta["db_uuid"], meta["generation"], SNAPSHOT_VERSION])
-    _save(snapshot_file(path, kind), arrays)
+    arrays = encode_rows(fields, rows)
+    arrays[META] = np.array([meta["db_uuid"], meta["generation"], SNAPSHOT_VERSION])
+    save_members(snapshot_file(path, kind), arrays.items())
     return arrays
-
-
-def encode_columns(fields: Sequence[Field], rows: list[tuple]) -> dict[str, np.ndarray]:
-    """Return pickle-free arrays for ``rows``: floats, text plus a missing mask, int8 bools."""
-    columns = list(zip(*rows, strict=True)) if rows else [() for _ in fields]
-    arrays: dict[str, np.ndarray] = {}
-    for f, column in zip(fields, columns, strict=True):
-        if f.type in ("float", "int"):
-            arrays[f.name] = np.array(column, dtype=float).reshape(-1)
-            continue
-        values = np.array(column, dtype=object).reshape(-1)
-        missing = np.equal(values, None)
-        if f.type == "bool":
-            arrays[f.name] = np.where(missing, -1, values.astype(bool, copy=False)).astype(np.int8)
-        else:
-            arrays[f.name] = np.where(missing, "", values).astype(str)
-            arrays[_MISSING + f.name] = missing
-    return arrays
-
-
-def _decode(arrays: dict[str, np.ndarray], f: Field) -> np.ndarray:
-    raw = arrays[f.name]
-    if f.type in ("float", "int"):
-        return raw.astype(float, copy=False)
-    if f.type == "bool":
-        out = np.where(raw == 1, True, False).astype(object)
-        out[raw < 0] = None
-        return out
-    out = raw.astype(object)
-    out[arrays[_MISSING + f.name]] = None
-    return out
-
-
-def _save(file: Path, arrays: dict[str, np.ndarray]) -> None:
-    file.parent.mkdir(parents=True, exist_ok=True)
-    handle, temp = tempfile.mkstemp(dir=file.parent, prefix=f".{file.stem}.", suffix=".tmp")
-    try:
-        with os.fdopen(handle, "wb") as out:
-            np.savez(out, **arrays)
-        os.replace(temp, file)
-    except BaseException:
-        with contextlib.suppress(OSError):
-            os.unlink(temp)
-        raise
 
 
 def _from_sql(url: str, kind: str, wanted: list[Field]) -> dict[str, np.ndarray]:
@@ -188,5 +146,5 @@ def _from_sql(url: str, kind: str, wanted: list[Field]) -> dict[str, np.ndarray]
     query = sa.select(*(table.c[f.name] for f in wanted)).order_by(table.c.id)
     with open_engine(url).connect() as conn:
         rows = [tuple(r) for r in conn.execute(query)]
-    arrays = encode_columns(wanted, rows)
-    return {f.name: _decode(arrays, f) for f in wanted}
+    arrays = encode_rows(wanted, rows)
+    return {f.name: decode_field(arrays, f) for f in wanted}

@@ -9,17 +9,21 @@ of one call is merged inside one transaction.
 
 from __future__ import annotations
 
+import contextlib
 import datetime as dt
 from collections.abc import Callable, Sequence
 from dataclasses import dataclass, field
 from pathlib import Path
 
 import sqlalchemy as sa
+from sqlalchemy import select
 
-from partpick.catalog import merge
+from partpick.catalog import columns, merge
 from partpick.catalog.headers import ColumnMatch, MapFile, check_map_for_kind, load_map
+from partpick.catalog.location import snapshot_file
 from partpick.catalog.reading import WHOLE_ROW, PreparedFile, Reject, prepare_file, read_chunks
-from partpick.catalog.schema import import_batches
+from partpick.catalog.schema import catalog_meta, import_batches
+from partpick.catalog.snapshot import SnapshotBuilder
 from partpick.catalog.store import bump_generation, open_engine, resolve_db_url, sqlite_file
 from partpick.errors import CatalogFormatError, NotFoundError, StrictImportError
 from partpick.fields import KINDS
@@ -85,13 +89,36 @@ def import_catalog(
         check_map_for_kind(mapping, kind)
     prepared = [prepare_file(path, kind, mapping) for path in files]
     engine = open_engine(db)
-    reports = []
-    with engine.begin() as conn:
-        for item in prepared:
-            reports.append(_import_one(conn, item, strict, progress, chunk_rows))
-        bump_generation(conn)
-    _refresh_snapshot(db, kind)
+    builder = _snapshot_builder(db, kind, len(prepared))
+    try:
+        with engine.begin() as conn:
+            reports = [_import_one(conn, item, strict, progress, chunk_rows, builder)
+                       for item in prepared]  # fmt: skip
+            stamp = _stamp_after_bump(conn)
+        _refresh_snapshot(db, kind, builder, stamp)
+    finally:
+        if builder is not None:
+            builder.discard()
     return reports
+
+
+def _snapshot_builder(db: str | None, kind: str, files: int) -> SnapshotBuilder | None:
+    """Return a builder spilling a one-file import's columns, or None where none applies."""
+    path = sqlite_file(resolve_db_url(db))
+    if path is None or files != 1:
+        return None  # several files: rebuild from the table after the commit instead
+    try:
+        return SnapshotBuilder(snapshot_file(path, kind), kind)
+    except OSError:
+        return None
+
+
+def _stamp_after_bump(conn: sa.Connection) -> tuple[str, str]:
+    generation = bump_generation(conn)
+    db_uuid = conn.execute(
+        select(catalog_meta.c.value).where(catalog_meta.c.key == "db_uuid")
+    ).scalar_one()
+    return db_uuid, str(generation)
 
 
 def _resolve_kind(kind: str | None, mapping: MapFile | None, files: Sequence) -> str:
@@ -112,12 +139,13 @@ def _import_one(
     strict: bool,
     progress: ProgressHook | None,
     chunk_rows: int,
+    builder: SnapshotBuilder | None,
 ) -> ImportReport:
     imported_at = dt.datetime.now(dt.UTC).isoformat(timespec="seconds")
     batch_id = _start_batch(conn, item, imported_at)
     source = (Path(item.path).name, item.format.sha256, imported_at, batch_id)
     after_id = merge.last_row_id(conn, item.kind)
-    written = _write_chunks(conn, item, source, progress, chunk_rows)
+    written = _write_chunks(conn, item, source, progress, chunk_rows, builder)
     rejects = sorted(written.rejects, key=lambda r: r.line)
     rejected = len({r.line for r in rejects})
     if strict and rejects:
@@ -161,17 +189,22 @@ def _write_chunks(
     source: tuple[str, str, str, int],
     progress: ProgressHook | None,
     chunk_rows: int,
+    builder: SnapshotBuilder | None,
 ) -> _Written:
     written = _Written()
     bulk = merge.is_empty(conn, item.kind)  # nothing to match: plain inserts, index at the end
     if bulk:
         merge.drop_identity_index(conn, item.kind)
+    elif builder is not None:
+        builder.invalidate()  # the table keeps earlier parts the spill does not hold
     duplicates = merge.DuplicateFinder(item.kind, source[3])
     for chunk in read_chunks(item, chunk_rows):
         if bulk:
             rows = merge.row_tuples(item.kind, chunk.values, chunk.lines, source)
             written.changed += merge.insert_rows(conn, item.kind, rows)
             repeats: list[merge.Duplicate] = []
+            if builder is not None:
+                builder.add(chunk.values, len(rows))
         else:
             rows, repeats = _unique_rows(conn, item, chunk, duplicates, source)
             written.changed += merge.upsert_rows(conn, item.kind, rows)
@@ -184,6 +217,8 @@ def _write_chunks(
             )
     if bulk:
         repeats = merge.rebuild_identity_index(conn, item.kind, source[3])
+        if repeats and builder is not None:
+            builder.invalidate()  # the repeats were spilled but are gone from the table
         written.kept -= len(repeats)
         written.changed -= len(repeats)
         written.rejects += _repeat_rejects(item, repeats)
@@ -214,14 +249,19 @@ def _start_batch(conn: sa.Connection, item: PreparedFile, imported_at: str) -> i
     return int(result.inserted_primary_key[0])
 
 
-def _refresh_snapshot(db: str | None, kind: str) -> None:
-    """Rewrite the columnar snapshot of ``kind`` after the commit; a stale one is rebuilt later."""
-    from partpick.catalog import columns
+def _refresh_snapshot(
+    db: str | None, kind: str, builder: SnapshotBuilder | None, stamp: tuple[str, str]
+) -> None:
+    """Write the columnar snapshot of ``kind`` after the commit.
 
+    From the spilled columns when the import filled an empty table, else from the table.
+    On a write failure the snapshot is left stale; read_columns notices and rebuilds it.
+    """
     url = resolve_db_url(db)
     if sqlite_file(url) is None:
         return  # in-memory and server catalogs are read through SQL
-    try:
-        columns.write_snapshot(url, kind)
-    except OSError:
-        pass  # the generation moved on, so the next read_columns rebuilds it
+    with contextlib.suppress(OSError):
+        if builder is not None and builder.valid:
+            builder.finish(stamp)
+        else:
+            columns.write_snapshot(url, kind)

@@ -221,7 +221,7 @@ def _bad_line_rejects(lines: list[int]) -> list[Reject]:
 
 
 def _validate(item: PreparedFile, frame: pd.DataFrame, lines: np.ndarray, done: int) -> Chunk:
-    frame = frame.fillna("")
+    # Short rows leave NaN in their last cells; every converter reads NaN as missing.
     keep = ~frame.eq("").all(axis=1).to_numpy()
     frame, lines = frame[keep], lines[keep]
     count = len(frame)

@@ -1,0 +1,149 @@
+"""The columnar snapshot format: one ``.npz`` per kind beside the database, no pickles.
+
+Each field is stored by its type:
+
+* float and int fields: one float64 array, NaN where missing;
+* bool fields: one int8 array, 1 / 0, and -1 where missing;
+* text and enum fields: the values' UTF-8 bytes, each ended by a NUL, as one uint8 array,
+  plus a bool mask ``__missing__<name>``. Splitting one decoded string is far faster than
+  building or reading fixed-width unicode arrays.
+
+``__meta__`` holds (db_uuid, generation, format version) of the catalog it was made from.
+:class:`SnapshotBuilder` spills a bulk import's columns to files chunk by chunk, so the
+snapshot of a freshly loaded kind is written without reading the rows back and without
+holding them in memory. Standard library and numpy only (no pandas).
+"""
+
+from __future__ import annotations
+
+import contextlib
+import os
+import shutil
+import tempfile
+import zipfile
+from collections.abc import Iterable, Iterator, Sequence
+from pathlib import Path
+
+import numpy as np
+
+from partpick.fields import Field, fields_of
+
+SNAPSHOT_VERSION = "2"
+META = "__meta__"
+MISSING = "__missing__"
+
+
+def encode_field(
+    f: Field, column: Sequence | np.ndarray | None, count: int
+) -> dict[str, np.ndarray]:
+    """Return the arrays storing ``column`` (None: all missing) of field ``f``."""
+    if f.type in ("float", "int"):
+        if column is None:
+            return {f.name: np.full(count, np.nan)}
+        return {f.name: np.asarray(column, dtype=float)}
+    values = (
+        np.full(count, None, dtype=object) if column is None else np.asarray(column, dtype=object)
+    )
+    missing = np.equal(values, None)
+    if f.type == "bool":
+        flags = np.where(missing, -1, np.where(missing, False, values).astype(bool)).astype(np.int8)
+        return {f.name: flags}
+    texts = np.where(missing, "", values).tolist()
+    joined = "\x00".join(texts) + "\x00" if texts else ""
+    if joined.count("\x00") != len(texts):  # a NUL inside a value would shift every later one
+        joined = "\x00".join(t.replace("\x00", "") for t in texts) + "\x00"
+    blob = np.frombuffer(joined.encode("utf-8"), dtype=np.uint8)
+    return {f.name: blob, MISSING + f.name: missing}
+
+
+def decode_field(arrays: dict[str, np.ndarray], f: Field) -> np.ndarray:
+    """Return field ``f`` as read_columns gives it: float64 with NaN, or object with None."""
+    raw = arrays[f.name]
+    if f.type in ("float", "int"):
+        return raw.astype(float, copy=False)
+    if f.type == "bool":
+        out = (raw == 1).astype(object)
+        out[raw < 0] = None
+        return out
+    texts = raw.tobytes().decode("utf-8").split("\x00")[:-1] if raw.size else []
+    out = np.empty(len(texts), dtype=object)
+    out[:] = texts
+    out[arrays[MISSING + f.name]] = None
+    return out
+
+
+def encode_rows(fields: Sequence[Field], rows: list[tuple]) -> dict[str, np.ndarray]:
+    """Return the snapshot arrays of database rows (tuples in ``fields`` order)."""
+    columns = list(zip(*rows, strict=True)) if rows else [None] * len(fields)
+    arrays: dict[str, np.ndarray] = {}
+    for f, column in zip(fields, columns, strict=True):
+        arrays.update(encode_field(f, column, len(rows)))
+    return arrays
+
+
+def save_members(file: Path, members: Iterable[tuple[str, np.ndarray]]) -> None:
+    """Write ``members`` as an .npz (one array at a time) and rename it into place."""
+    file.parent.mkdir(parents=True, exist_ok=True)
+    handle, temp = tempfile.mkstemp(dir=file.parent, prefix=f".{file.stem}.", suffix=".tmp")
+    try:
+        with os.fdopen(handle, "wb") as out, zipfile.ZipFile(out, "w", allowZip64=True) as archive:
+            for name, array in members:
+                with archive.open(name + ".npy", "w", force_zip64=True) as member:
+                    np.lib.format.write_array(member, np.asanyarray(array), allow_pickle=False)
+        os.replace(temp, file)
+    except BaseException:
+        with contextlib.suppress(OSError):
+            os.unlink(temp)
+        raise
+
+
+class SnapshotBuilder:
+    """Collect the rows of a bulk import chunk by chunk in spill files beside the snapshot.
+
+    Call :meth:`add` with each chunk's columns in insert order, :meth:`invalidate` if the
+    stored table will not equal what was added, and after the commit :meth:`finish` with the
+    committed stamp. :meth:`discard` removes the spill files in every case.
+    """
+
+    def __init__(self, file: Path, kind: str) -> None:
+        self.file = file
+        self.fields = fields_of(kind)
+        file.parent.mkdir(parents=True, exist_ok=True)
+        self._spill = Path(tempfile.mkdtemp(dir=file.parent, prefix=f".{kind}-build-"))
+        self.valid = True
+
+    def add(self, values: dict[str, np.ndarray], count: int) -> None:
+        """Append one chunk (field name -> array over its rows; absent fields are missing)."""
+        if not self.valid:
+            return
+        for f in self.fields:
+            for key, array in encode_field(f, values.get(f.name), count).items():
+                with open(self._spill / key, "ab") as out:
+                    out.write(np.ascontiguousarray(array).tobytes())
+
+    def invalidate(self) -> None:
+        """Mark the spilled rows as not the table's contents (the snapshot is then rebuilt)."""
+        self.valid = False
+
+    def finish(self, stamp: tuple[str, str]) -> None:
+        """Write the snapshot stamped (db_uuid, generation) from the spilled columns."""
+        save_members(self.file, self._members(stamp))
+
+    def _members(self, stamp: tuple[str, str]) -> Iterator[tuple[str, np.ndarray]]:
+        yield META, np.array([stamp[0], stamp[1], SNAPSHOT_VERSION])
+        for f in self.fields:
+            keys = [f.name] if f.type in ("float", "int", "bool") else [f.name, MISSING + f.name]
+            for key in keys:
+                path = self._spill / key
+                dtype = _spill_dtype(f, key)
+                yield key, np.fromfile(path, dtype=dtype) if path.exists() else np.empty(0, dtype)
+
+    def discard(self) -> None:
+        """Remove the spill files."""
+        shutil.rmtree(self._spill, ignore_errors=True)
+
+
+def _spill_dtype(f: Field, key: str) -> type:
+    if key.startswith(MISSING):
+        return np.bool_
+    return {"float": np.float64, "int": np.float64, "bool": np.int8}.get(f.type, np.uint8)
