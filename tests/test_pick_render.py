@@ -81,7 +81,7 @@ def test_tightest_margin_skips_the_window():
     )
     outcome = Outcome("QM-1", "Quillmark Magnetics", "inductor", "passed", 1, 0.1, 1.0, 1.0,
                       None, checks, (), ())  # fmt: skip
-    assert margin_text(outcome) == "saturation 75 % of limit"
+    assert margin_text(outcome) == "saturation 75 %"
 
 
 def test_render_pick_on_a_fixed_console(tmp_path):

@@ -58,6 +58,7 @@ DERIVED: tuple[tuple[str, str, str], ...] = (
     ("capacitance_eff_f", "effective capacitance per part", "F"),
     ("voltage_use", "voltage use allowed for its dielectric", "fraction"),
 )
+DIELECTRIC_TABLES = ("capacitor.voltage_use", "capacitor.kept_fraction")
 STATUS_STYLES = {"pass": STYLE_PASS, "fail": STYLE_FAIL, "unverified": STYLE_UNVERIFIED}
 
 
@@ -190,7 +191,7 @@ def margin_text(outcome: Outcome) -> str:
     tight = tightest_check(outcome.checks)
     if tight is None:
         return "—"
-    return f"{tight.rule} {_pct(check_load(tight))} of limit"
+    return f"{tight.rule} {_pct(check_load(tight))}"
 
 
 # --- JSON ------------------------------------------------------------------------------------
@@ -358,17 +359,29 @@ def operating_point_table(rows) -> Table:
 
 
 def profile_table(profile, role: str) -> Table:
-    """Return the profile figures the role's rules read, so the policy is visible."""
+    """Return the profile figures the role's rules read, so the policy is visible.
+
+    A table by dielectric becomes one row per figure, its dielectrics grouped by value.
+    """
     table = Table(
         title=f"Derating policy: {profile.name}", title_justify="left", header_style=STYLE_HEADING
     )
-    table.add_column("figure")
+    table.add_column("figure", no_wrap=True)
     table.add_column("value")
+    grouped: dict[str, dict[float, list[str]]] = {}
     for key, value in sorted(profile.figures.items()):
-        if key.split(".")[0] in ROLE_SECTIONS.get(role, ()):
-            unit = profile.unit_of(key)
-            shown = "none" if math.isinf(value) else _figure_text(value, unit)
-            table.add_row(key, shown)
+        if key.split(".")[0] not in ROLE_SECTIONS.get(role, ()):
+            continue
+        head, _, code = key.rpartition(".")
+        if head in DIELECTRIC_TABLES:
+            grouped.setdefault(head, {}).setdefault(value, []).append(code)
+            continue
+        unit = profile.unit_of(key)
+        table.add_row(key, "none" if math.isinf(value) else _figure_text(value, unit))
+    for head, by_value in grouped.items():
+        parts = [f"{_pct(v)}: {', '.join(codes)}" for v, codes in sorted(by_value.items())]
+        note = "; others 100 %" if head.endswith("kept_fraction") else ""
+        table.add_row(head, "; ".join(parts) + note)
     return table
 
 
@@ -382,10 +395,15 @@ def _figure_text(value: float, unit: str) -> str:
 
 def passed_table(outcomes: list[Outcome], title: str) -> Table:
     table = Table(title=title, title_justify="left", header_style=STYLE_HEADING)
-    for column in ("#", "mpn", "manufacturer", "n", "loss", "cost", "tightest", "notes"):
+    table.add_column("#")
+    table.add_column("mpn", no_wrap=True)
+    for column in ("manufacturer", "n", "loss", "cost", "tightest, of limit"):
         table.add_column(column)
+    with_notes = any(o.notes for o in outcomes)
+    if with_notes:
+        table.add_column("notes")
     for i, o in enumerate(outcomes, 1):
-        table.add_row(
+        cells = [
             str(i),
             Text(o.mpn, style=STYLE_PASS),
             o.manufacturer,
@@ -393,8 +411,10 @@ def passed_table(outcomes: list[Outcome], title: str) -> Table:
             _q(o.loss_w, "W"),
             f"{o.cost:.2f}" if o.cost is not None else "—",
             margin_text(o),
-            Text("; ".join(o.notes), style=STYLE_MUTED),
-        )
+        ]
+        if with_notes:
+            cells.append(Text("; ".join(o.notes), style=STYLE_MUTED))
+        table.add_row(*cells)
     return table
 
 
