@@ -480,3 +480,44 @@ def test_switch_thermal(theta, qgd, coss, status):
 )
 def test_lifecycle(state, status):
     assert lifecycle_rule(np.array([state], dtype=object)).status[0] == status
+
+
+# --- core data and load ---------------------------------------------------------------------
+
+
+def test_core_data_rule_leaves_incomplete_parts_unverified():
+    from partpick.screening.checks import core_data_rule
+
+    columns = {
+        "mpn": np.array(["A", "B", "C"], dtype=object),
+        "esr_ohm": np.array([0.01, NAN, 0.02]),
+        "ripple_a": np.array([1.0, 1.0, NAN]),
+    }
+    rule = core_data_rule(columns, ("esr_ohm", "ripple_a"))
+    assert rule.status.tolist() == [SKIPPED, UNVERIFIED, UNVERIFIED]
+    assert rule.check_at(0) is None
+    assert rule.check_at(1).missing == ("esr_ohm",)
+    assert rule.check_at(2).missing == ("ripple_a",)
+
+
+@pytest.mark.parametrize(
+    ("rule", "stress", "limit", "status", "utilisation", "load"),
+    [
+        ("saturation", 3.0, 4.0, "pass", 0.6, 0.75),  # 3 A of a 4 A limit
+        ("saturation", 4.4, 4.0, "fail", 0.88, 1.1),
+        ("inductance", 10e-6, 9.8e-6, "pass", None, 0.98),  # 9.8/10 of the way to l_min
+        ("inductance", 22e-6, 19.6e-6, "fail", None, 22 / 19.6),  # above l_max
+        ("inductance", 8.2e-6, 9.8e-6, "fail", None, 9.8 / 8.2),  # below l_min
+        ("thermal", 110.0, 125.0, "pass", 0.8, 0.8),  # share of the allowed rise
+        ("temperature", 60.0, 85.0, "pass", None, None),  # no natural ratio
+        ("channel", None, None, "fail", None, None),
+    ],
+)
+def test_check_load(rule, stress, limit, status, utilisation, load):
+    from partpick.screening.checks import Check, check_load
+
+    check = Check(rule, stress, limit, None, None, utilisation, None, "", status)
+    if load is None:
+        assert check_load(check) is None
+    else:
+        assert check_load(check) == pytest.approx(load)
