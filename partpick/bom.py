@@ -14,6 +14,7 @@ from dataclasses import dataclass, field
 import numpy as np
 
 from partpick import losses
+from partpick.design.cautions import stored_energy_j
 from partpick.design.spec import Spec
 from partpick.design.topologies import get_topology
 from partpick.design.topologies.base import Caution, Envelope
@@ -21,6 +22,7 @@ from partpick.screening.capacitor import effective_capacitance_f
 from partpick.screening.checks import Outcome
 from partpick.screening.pick import ROLES, PickResult, pick
 from partpick.screening.profiles import Profile
+from partpick.units import format_eng
 
 DESIGNATORS: dict[str, str] = {
     "inductor": "L1",
@@ -96,7 +98,8 @@ class Bom:
     efficiency: float
     ripple: StageRipple | None
     loss_notes: tuple[str, ...] = ()
-    verification: object | None = None
+    verification: object | None = None  # a partpick.verify VerifyResult
+    verification_note: str | None = None
     picks: dict[str, PickResult] = field(default_factory=dict, repr=False)
 
     @property
@@ -119,8 +122,25 @@ class Bom:
 
     @property
     def cautions(self) -> tuple[Caution, ...]:
-        """Return the design's cautions (hazardous voltage, stored energy, qualified use)."""
-        return self.envelope.cautions
+        """Return the design's cautions, plus the energy the chosen output bank really stores."""
+        bank = _chosen_bank_caution(self.spec, self.lines)
+        return self.envelope.cautions + ((bank,) if bank is not None else ())
+
+
+def _chosen_bank_caution(spec: Spec, lines: tuple[BomLine, ...]) -> Caution | None:
+    """Return the stored-energy caution for the output capacitors actually chosen."""
+    line = next(line for line in lines if line.role == "output-cap")
+    capacitance_f = _part_value(line, "capacitance_f")
+    if not np.isfinite(capacitance_f):
+        return None
+    bank_f = line.qty * capacitance_f
+    energy_j = stored_energy_j(bank_f, spec.vout_v)
+    return Caution(
+        "stored-energy-chosen",
+        f"The chosen output bank ({line.qty} × {format_eng(capacitance_f, 'F')} nominal) stores "
+        f"{format_eng(energy_j, 'J')} at {format_eng(spec.vout_v, 'V')}, and keeps it after the "
+        "input is removed: discharge it before touching the output.",
+    )
 
 
 def build_bom(
@@ -167,7 +187,11 @@ def build_bom(
             break
         efficiency_used = estimated
     envelope = picks[ROLES[0]].envelope
-    verification = verify_chosen_set(round_spec, lines, profile) if verify else None
+    verification, verification_note = (
+        verify_chosen_set(round_spec, lines, profile, rounds[-1].efficiency_estimated)
+        if verify
+        else (None, None)
+    )
     return Bom(
         spec=round_spec,
         envelope=envelope,
@@ -181,6 +205,7 @@ def build_bom(
         loss_notes=notes,
         picks=picks,
         verification=verification,
+        verification_note=verification_note,
     )
 
 
@@ -339,10 +364,35 @@ def _output_ripple_v(spec, envelope, line, stress, profile) -> float | None:
     return float(charge_v + esr_ohm / count * stress.il_peak_a[0])
 
 
-def verify_chosen_set(spec: Spec, lines: tuple[BomLine, ...], profile: Profile) -> object | None:
+def verify_chosen_set(
+    spec: Spec, lines: tuple[BomLine, ...], profile: Profile, efficiency_estimate: float
+) -> tuple[object | None, str | None]:
     """Return the steady-state verification of the chosen set at vin_min and vin_max.
 
-    None where a role the waveform model needs has no part, or a parasitic it needs is missing
-    from the catalog (the BOM still stands; ``partpick verify`` names the field).
+    Returns (result, None), or (None, reason) where a role the waveform model needs has no
+    part or a chosen part lacks a parasitic the model needs; the BOM stands either way, and
+    ``partpick verify`` with an override option can fill the gap.
     """
-    return None
+    from partpick.errors import ParameterError
+    from partpick.verify.sweep import verify_parts
+
+    by_role = {line.role: line for line in lines}
+    needed = ("inductor", "output-cap", "diode", "switch")
+    absent = [role for role in needed if by_role[role].choice is None]
+    if absent:
+        return None, f"not verified: no part chosen for {', '.join(absent)}"
+    parts = {
+        role: {"mpn": by_role[role].choice.mpn, **by_role[role].choice.part} for role in needed
+    }
+    try:
+        result = verify_parts(
+            spec,
+            parts,
+            hot_factor=profile.value("switch.hot_factor"),
+            output_count=by_role["output-cap"].qty,
+            efficiency_estimate=efficiency_estimate,
+            profile=profile,
+        )
+    except ParameterError as exc:
+        return None, f"not verified: {exc}"
+    return result, None

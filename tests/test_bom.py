@@ -217,7 +217,7 @@ def test_markdown_report_has_its_sections_and_rows(db, standard):
     rows = [line for line in text.splitlines() if line.startswith("| L1 |")]
     assert len(rows) == 1 and "BT-L120B" in rows[0]
     assert "| COUT | output-cap | 3 |" in text
-    assert "VRRM 40 V vs 24.1 V reverse: 60% use, limit 80% (standard profile)" in text
+    assert "VRRM 40 V vs 24.1 V reverse: 60 % use, limit 80 % (standard profile)" in text
 
 
 def test_json_document_contract(db, standard):
@@ -291,3 +291,38 @@ def test_cli_formats(db, fmt):
     result = CliRunner().invoke(app, ["bom", str(SPEC), "--db", db, "--format", fmt, "--no-verify"])
     assert result.exit_code == 0, result.output
     assert "BT-L120B" in result.output
+
+
+def test_bom_verifies_the_chosen_set_at_both_ends(db, standard):
+    spec = load_spec(SPEC)
+    bom = build_bom(db, spec, profile=standard, verify=True)
+    result = bom.verification
+    assert [p.point.vin_v for p in result.points] == [6.0, 8.4]
+    for item in result.points:
+        assert item.state.vout_avg_v == pytest.approx(24.0, rel=1e-4)  # regulated
+        assert item.state.mode == "ccm"
+        # with losses the regulated duty sits above the ideal 1 − Vin/Vout
+        # (Erickson & Maksimovic, 3rd ed., ch. 3): 0.75 at 6 V, 0.65 at 8.4 V
+        assert item.state.duty > 1 - item.point.vin_v / 24.0
+    document = bom_document(bom)
+    assert len(document["verification"]["points"]) == 2
+
+
+def test_markdown_report_embeds_the_verification_plot(db, tmp_path):
+    out = tmp_path / "review.md"
+    result = CliRunner().invoke(
+        app, ["bom", str(SPEC), "--db", db, "--format", "md", "--output", str(out)]
+    )
+    assert result.exit_code == 0, result.output
+    text = out.read_text()
+    assert "\n## Verification\n" in text
+    assert "![steady-state waveforms and efficiency](review.png)" in text
+    assert (tmp_path / "review.png").read_bytes().startswith(b"\x89PNG")
+
+
+def test_cautions_include_the_energy_of_the_chosen_bank(db, standard):
+    bom = build_bom(db, load_spec(SPEC), profile=standard)
+    texts = [c.text for c in bom.cautions]
+    # three 10 µF parts at 24 V: ½ · 30e-6 · 24² = 8.64 mJ (E = ½CV², any physics text)
+    assert any("8.64 mJ" in t for t in texts)
+    assert any("qualified engineer" in t for t in texts)

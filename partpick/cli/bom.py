@@ -124,8 +124,8 @@ def _rendered(bom, output_format: BomFormat, plot_name: str | None, render) -> s
     return buffer.getvalue()
 
 
-def _write_plot(bom, path: Path) -> str | None:
+def _write_plot(bom, path: Path) -> str:
     """Write the verification plot beside the report; return its name for the Markdown link."""
-    from partpick.bom import verification_plot
+    from partpick.verify.plot import save_plot
 
-    return verification_plot(bom, path)
+    return save_plot(path, bom.verification).name

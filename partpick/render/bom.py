@@ -7,7 +7,6 @@ Everything a person reads about a BOM is phrased here, from the data in
 from __future__ import annotations
 
 import dataclasses
-from collections.abc import Callable
 
 from rich.console import Console, Group
 from rich.panel import Panel
@@ -36,8 +35,8 @@ def _eng(value: float | None, unit: str) -> str:
     return format_eng(value, unit)
 
 
-def _percent(value: float | None) -> str:
-    return "—" if value is None else f"{value * 100:.0f} %"
+def _percent(value: float | None, decimals: int = 0) -> str:
+    return "—" if value is None else f"{value * 100:.{decimals}f} %"
 
 
 def check_note(check: Check, profile_name: str, count: int = 1) -> str:
@@ -133,8 +132,7 @@ def render_bom_table(bom: Bom, console: Console) -> None:
     console.print(_lines_table(bom))
     console.print(_notes_table(bom))
     console.print(_summary_table(bom))
-    if bom.verification is not None and VERIFY_RENDERER is not None:
-        VERIFY_RENDERER(bom, console)
+    _render_verification(bom, console)
     console.print(_cautions_panel(bom))
 
 
@@ -145,7 +143,7 @@ def _spec_panel(bom: Bom) -> Panel:
         f"{spec.vout_v:g} V / {_eng(spec.iout_a, 'A')} out at {_eng(spec.fsw_hz, 'Hz')}, "
         f"ambient up to {spec.ambient_max_degc:g} °C",
         f"profile: {bom.profile.name}; ranked by {bom.rank}; efficiency used for the currents: "
-        f"{_percent(spec.efficiency)} after {len(bom.rounds)} round(s)",
+        f"{_percent(spec.efficiency, 1)} after {len(bom.rounds)} round(s)",
     ]
     for r in bom.rounds:
         lines.append(
@@ -212,7 +210,7 @@ def _summary_table(bom: Bom) -> Table:
     for role, loss in bom.losses_w.items():
         table.add_row(f"loss, {role}", _eng(loss, "W"))
     table.add_row("loss, total", _eng(bom.total_loss_w, "W"))
-    table.add_row("efficiency (estimate)", _percent(bom.efficiency))
+    table.add_row("efficiency (estimate)", _percent(bom.efficiency, 1))
     for note in bom.loss_notes:
         table.add_row(Text(note, style=STYLE_UNVERIFIED), "")
     if bom.ripple is not None:
@@ -234,9 +232,20 @@ def _cautions_panel(bom: Bom) -> Panel:
     return Panel(body, title="cautions", title_align="left", border_style=STYLE_CAUTION)
 
 
-# A hook for the verification section: set by partpick.render.verify when it is imported.
-VERIFY_RENDERER: Callable[[Bom, Console], None] | None = None
-VERIFY_MARKDOWN: Callable[[Bom], str] | None = None
+def _render_verification(bom: Bom, console: Console) -> None:
+    if bom.verification is None:
+        if bom.verification_note:
+            console.print(Text(bom.verification_note, style=STYLE_UNVERIFIED))
+        return
+    from partpick.render.verify import points_table, warning_sentence
+
+    result = bom.verification
+    console.print(
+        Text("verification: exact steady state of the chosen set, regulated", style=STYLE_HEADING)
+    )
+    console.print(points_table(result))
+    for warning in result.warnings:
+        console.print(Text(f"• {warning_sentence(warning)}", style=STYLE_UNVERIFIED))
 
 
 # ---------------------------------------------------------------------------------- exports
@@ -333,8 +342,10 @@ def bom_document(bom: Bom) -> dict:
         "complete": bom.complete,
         "cautions": [c.text for c in bom.cautions],
     }
-    if bom.verification is not None and hasattr(bom.verification, "to_dict"):
+    if bom.verification is not None:
         document["verification"] = bom.verification.to_dict()
+    else:
+        document["verification"] = {"note": bom.verification_note}
     return document
 
 
@@ -383,12 +394,45 @@ def bom_markdown(bom: Bom, plot_file: str | None = None) -> str:
         out += [f"- {note}" for note in line_notes(line, bom.profile.name)]
         out.append("")
     out += ["## Losses and efficiency", "", markdown_table(("item", "value"), _loss_rows(bom)), ""]
-    if bom.verification is not None and VERIFY_MARKDOWN is not None:
-        out += [VERIFY_MARKDOWN(bom), ""]
-    if plot_file:
-        out += [f"![steady-state waveforms and efficiency]({plot_file})", ""]
+    out += _verification_markdown(bom, plot_file)
     out += ["## Cautions", ""] + [f"- {c.text}" for c in bom.cautions] + [""]
     return "\n".join(out)
+
+
+def _verification_markdown(bom: Bom, plot_file: str | None) -> list[str]:
+    out = ["## Verification", ""]
+    if bom.verification is None:
+        return out + [bom.verification_note or "not verified", ""]
+    from partpick.render.verify import warning_sentence
+
+    result = bom.verification
+    out += [
+        "Exact periodic steady state of the switched circuit with the chosen parts, "
+        "regulated to the output voltage.",
+        "",
+    ]
+    rows = [
+        [
+            _eng(p.point.vin_v, "V"),
+            _eng(p.point.iout_a, "A"),
+            p.state.mode,
+            f"{p.state.duty:.3f}",
+            _eng(p.state.vout_ripple_v, "V"),
+            _eng(p.state.il_min_a, "A"),
+            _eng(p.state.il_max_a, "A"),
+            _percent(p.state.efficiency, 1),
+        ]
+        for p in result.points
+    ]
+    out.append(
+        markdown_table(
+            ("Vin", "Iout", "mode", "duty", "ripple p-p", "iL min", "iL max", "efficiency"), rows
+        )
+    )
+    out += [f"- {warning_sentence(w)}" for w in result.warnings]
+    if plot_file:
+        out += ["", f"![steady-state waveforms and efficiency]({plot_file})"]
+    return out + [""]
 
 
 def _spec_rows(bom: Bom) -> list[list[str]]:
@@ -399,7 +443,7 @@ def _spec_rows(bom: Bom) -> list[list[str]]:
         ["switching frequency", _eng(s.fsw_hz, "Hz")],
         ["output ripple limit", _eng(s.vout_ripple_v, "V")],
         ["ambient, maximum", f"{s.ambient_max_degc:g} °C"],
-        ["efficiency used for the currents", _percent(s.efficiency)],
+        ["efficiency used for the currents", _percent(s.efficiency, 1)],
         ["derating profile", bom.profile.name],
         ["ranked by", bom.rank],
     ]
@@ -417,7 +461,7 @@ def _loss_rows(bom: Bom) -> list[list[str]]:
     rows = [[f"loss, {role}", _eng(v, "W")] for role, v in bom.losses_w.items()]
     rows += [
         ["loss, total", _eng(bom.total_loss_w, "W")],
-        ["efficiency (estimate)", _percent(bom.efficiency)],
+        ["efficiency (estimate)", _percent(bom.efficiency, 1)],
         ["rounds", str(len(bom.rounds))],
         ["total cost", _price(bom.total_cost)],
     ]
