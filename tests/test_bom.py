@@ -39,7 +39,7 @@ from partpick.catalog.importer import import_catalog
 from partpick.cli import app
 from partpick.design.spec import load_spec
 from partpick.losses import efficiency_from_losses
-from partpick.render.bom import bom_csv, bom_document, bom_markdown
+from partpick.render.bom_report import bom_csv, bom_document, bom_markdown
 from partpick.screening.checks import Outcome
 from partpick.screening.pick import pick
 from partpick.screening.profiles import load_profile

@@ -79,7 +79,7 @@ def bom_command(
     Example: partpick bom logger.toml --format md --output review.md
     """
     from partpick.bom import build_bom
-    from partpick.render import bom as render
+    from partpick.render import bom_report
     from partpick.render.exports import write_atomically
     from partpick.screening.profiles import load_profile
 
@@ -95,12 +95,13 @@ def bom_command(
     plot_name = None
     if output is not None and output_format is BomFormat.md and bom.verification is not None:
         plot_name = _write_plot(bom, output.with_suffix(".png"))
-    text = _rendered(bom, output_format, plot_name, render)
+    text = _rendered(bom, output_format, plot_name, bom_report)
     if output is None:
         if output_format is BomFormat.table:
+            from partpick.render.bom import render_bom_table
             from partpick.render.console import make_console
 
-            render.render_bom_table(bom, make_console())
+            render_bom_table(bom, make_console())
         else:
             typer.echo(text, nl=False)
     else:
@@ -110,17 +111,18 @@ def bom_command(
         raise typer.Exit(EXIT_NO_PART)
 
 
-def _rendered(bom, output_format: BomFormat, plot_name: str | None, render) -> str:
+def _rendered(bom, output_format: BomFormat, plot_name: str | None, report) -> str:
     if output_format is BomFormat.json:
-        return render.bom_json(bom)
+        return report.bom_json(bom)
     if output_format is BomFormat.csv:
-        return render.bom_csv(bom)
+        return report.bom_csv(bom)
     if output_format is BomFormat.md:
-        return render.bom_markdown(bom, plot_name)
+        return report.bom_markdown(bom, plot_name)
+    from partpick.render.bom import render_bom_table
     from partpick.render.console import make_console
 
     buffer = io.StringIO()
-    render.render_bom_table(bom, make_console(file=buffer, width=120))
+    render_bom_table(bom, make_console(file=buffer, width=120))
     return buffer.getvalue()
 
 

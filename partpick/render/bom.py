@@ -1,12 +1,11 @@
-"""The bill of materials as a terminal view, Markdown review report, CSV and JSON.
+"""The bill of materials in the terminal, and the line texts every BOM format shares.
 
-Everything a person reads about a BOM is phrased here, from the data in
+Everything a person reads about a BOM is phrased here or in
+:mod:`partpick.render.bom_report` (Markdown, CSV, JSON), from the data in
 :class:`partpick.bom.Bom`; the derating notes are built from each check's figures.
 """
 
 from __future__ import annotations
-
-import dataclasses
 
 from rich.console import Console, Group
 from rich.panel import Panel
@@ -22,20 +21,19 @@ from partpick.render.console import (
     STYLE_PASS,
     STYLE_UNVERIFIED,
 )
-from partpick.render.exports import csv_text, json_text, markdown_table
 from partpick.render.pick import check_sentence
-from partpick.screening.checks import Check, Outcome
+from partpick.screening.checks import Check
 from partpick.units import format_eng
 
 STATUS_STYLES = {"passed": STYLE_PASS, "unverified": STYLE_UNVERIFIED, "no-part": STYLE_FAIL}
 STATUS_WORDS = {"passed": "passed", "unverified": "UNVERIFIED", "no-part": "NO PART PASSES"}
 
 
-def _eng(value: float | None, unit: str) -> str:
+def eng(value: float | None, unit: str) -> str:
     return format_eng(value, unit)
 
 
-def _percent(value: float | None, decimals: int = 0) -> str:
+def percent(value: float | None, decimals: int = 0) -> str:
     return "—" if value is None else f"{value * 100:.{decimals}f} %"
 
 
@@ -85,7 +83,7 @@ def line_value(line: BomLine) -> str:
     if line.choice is None:
         return ""
     part = line.choice.part
-    text = " ".join(_eng(_num(part.get(f)), u) for f, u in _VALUE_FIELDS[line.role])
+    text = " ".join(eng(_num(part.get(f)), u) for f, u in _VALUE_FIELDS[line.role])
     extra = part.get("dielectric") or part.get("diode_type") or ""
     return f"{text} {extra}".strip()
 
@@ -96,7 +94,7 @@ def line_ratings(line: BomLine) -> str:
         return ""
     part = line.choice.part
     return ", ".join(
-        f"{label} {_eng(_num(part.get(f)), u)}" for label, f, u in _RATING_FIELDS[line.role]
+        f"{label} {eng(_num(part.get(f)), u)}" for label, f, u in _RATING_FIELDS[line.role]
     )
 
 
@@ -104,11 +102,11 @@ def _num(value: object) -> float | None:
     return None if value is None else float(value)
 
 
-def _price(value: float | None) -> str:
+def price(value: float | None) -> str:
     return "—" if value is None else f"{value:.2f}"
 
 
-def _line_header(line: BomLine) -> list[str]:
+def line_header(line: BomLine) -> list[str]:
     choice = line.choice
     return [
         line.designator,
@@ -118,8 +116,8 @@ def _line_header(line: BomLine) -> list[str]:
         choice.mpn if choice else "",
         line_value(line),
         line_ratings(line),
-        _price(choice.unit_price if choice else None),
-        _price(line.extended_price),
+        price(choice.unit_price if choice else None),
+        price(line.extended_price),
     ]
 
 
@@ -140,10 +138,10 @@ def _spec_panel(bom: Bom) -> Panel:
     spec = bom.spec
     lines = [
         f"{spec.name or 'boost stage'}: {spec.vin_min_v:g}–{spec.vin_max_v:g} V in, "
-        f"{spec.vout_v:g} V / {_eng(spec.iout_a, 'A')} out at {_eng(spec.fsw_hz, 'Hz')}, "
+        f"{spec.vout_v:g} V / {eng(spec.iout_a, 'A')} out at {eng(spec.fsw_hz, 'Hz')}, "
         f"ambient up to {spec.ambient_max_degc:g} °C",
         f"profile: {bom.profile.name}; ranked by {bom.rank}; efficiency used for the currents: "
-        f"{_percent(spec.efficiency, 1)} after {len(bom.rounds)} round(s)",
+        f"{percent(spec.efficiency, 1)} after {len(bom.rounds)} round(s)",
     ]
     for r in bom.rounds:
         lines.append(
@@ -174,7 +172,7 @@ def _lines_table(bom: Bom) -> Table:
         )
     for line in bom.lines:
         status = Text(STATUS_WORDS[line.status], style=STATUS_STYLES[line.status])
-        table.add_row(*_line_header(line), status)
+        table.add_row(*line_header(line), status)
         for alt in line.alternates:
             table.add_row(
                 "",
@@ -184,8 +182,8 @@ def _lines_table(bom: Bom) -> Table:
                 alt.mpn,
                 "",
                 "",
-                _price(alt.unit_price),
-                _price(alt.cost),
+                price(alt.unit_price),
+                price(alt.cost),
                 "",
                 style=STYLE_MUTED,
             )
@@ -208,21 +206,21 @@ def _summary_table(bom: Bom) -> Table:
     table.add_column("item")
     table.add_column("value", justify="right")
     for role, loss in bom.losses_w.items():
-        table.add_row(f"loss, {role}", _eng(loss, "W"))
-    table.add_row("loss, total", _eng(bom.total_loss_w, "W"))
-    table.add_row("efficiency (estimate)", _percent(bom.efficiency, 1))
+        table.add_row(f"loss, {role}", eng(loss, "W"))
+    table.add_row("loss, total", eng(bom.total_loss_w, "W"))
+    table.add_row("efficiency (estimate)", percent(bom.efficiency, 1))
     for note in bom.loss_notes:
         table.add_row(Text(note, style=STYLE_UNVERIFIED), "")
     if bom.ripple is not None:
         r = bom.ripple
-        table.add_row("inductor ripple at nominal L", _eng(r.il_ripple_nominal_a, "A"))
+        table.add_row("inductor ripple at nominal L", eng(r.il_ripple_nominal_a, "A"))
         table.add_row(
-            f"inductor ripple at minimum L ({_eng(r.inductance_min_h, 'H')})",
-            _eng(r.il_ripple_min_l_a, "A"),
+            f"inductor ripple at minimum L ({eng(r.inductance_min_h, 'H')})",
+            eng(r.il_ripple_min_l_a, "A"),
         )
-        table.add_row(f"output ripple with {r.output_count} part(s)", _eng(r.vout_ripple_v, "V"))
+        table.add_row(f"output ripple with {r.output_count} part(s)", eng(r.vout_ripple_v, "V"))
         table.add_row("full load in CCM with this inductor", "yes" if r.ccm_full_load else "NO")
-    table.add_row("total cost", _price(bom.total_cost))
+    table.add_row("total cost", price(bom.total_cost))
     table.add_row("profile", bom.profile.name)
     return table
 
@@ -246,231 +244,3 @@ def _render_verification(bom: Bom, console: Console) -> None:
     console.print(points_table(result))
     for warning in result.warnings:
         console.print(Text(f"• {warning_sentence(warning)}", style=STYLE_UNVERIFIED))
-
-
-# ---------------------------------------------------------------------------------- exports
-
-CSV_HEADER = (
-    "designator",
-    "role",
-    "qty",
-    "manufacturer",
-    "mpn",
-    "value",
-    "key_ratings",
-    "unit_price",
-    "extended_price",
-    "status",
-    "notes",
-)
-
-
-def bom_csv(bom: Bom) -> str:
-    """Return the BOM as spreadsheet-safe CSV, one row per line plus a total row."""
-    rows = []
-    for line in bom.lines:
-        choice = line.choice
-        rows.append(
-            [
-                line.designator,
-                line.role,
-                line.qty,
-                choice.manufacturer if choice else "",
-                choice.mpn if choice else "",
-                line_value(line),
-                line_ratings(line),
-                choice.unit_price if choice else None,
-                line.extended_price,
-                line.status,
-                "; ".join(line_notes(line, bom.profile.name)),
-            ]
-        )
-    rows.append(["TOTAL", "", "", "", "", "", "", None, bom.total_cost, "", ""])
-    return csv_text(CSV_HEADER, rows)
-
-
-def _outcome_json(outcome: Outcome) -> dict:
-    return {
-        "mpn": outcome.mpn,
-        "manufacturer": outcome.manufacturer,
-        "count": outcome.count,
-        "loss_w": outcome.loss_w,
-        "unit_price": outcome.unit_price,
-    }
-
-
-def bom_document(bom: Bom) -> dict:
-    """Return the BOM as the JSON document (SI units); ``partpick verify --bom`` reads it."""
-    lines = []
-    for line in bom.lines:
-        choice = line.choice
-        lines.append(
-            {
-                "role": line.role,
-                "designator": line.designator,
-                "qty": line.qty,
-                "mpn": choice.mpn if choice else None,
-                "manufacturer": choice.manufacturer if choice else None,
-                "unit_price": choice.unit_price if choice else None,
-                "extended_price": line.extended_price,
-                "value": line_value(line),
-                "status": line.status,
-                "notes": line_notes(line, bom.profile.name),
-                "checks": [dataclasses.asdict(c) for c in choice.checks] if choice else [],
-                "part": dict(choice.part) if choice else None,
-                "alternates": [_outcome_json(o) for o in line.alternates],
-                "closest_failures": [
-                    {**_outcome_json(o), "failing": [c.rule for c in o.failing]}
-                    for o in line.closest_failures
-                ],
-            }
-        )
-    document = {
-        "spec": bom.spec.to_dict(),
-        "stress": bom.envelope.to_dict(),
-        "profile": bom.profile.name,
-        "profile_figures": dict(bom.profile.figures),
-        "rank": bom.rank,
-        "lines": lines,
-        "losses_w": dict(bom.losses_w),
-        "total_loss_w": bom.total_loss_w,
-        "efficiency": bom.efficiency,
-        "efficiency_used": bom.spec.efficiency,
-        "rounds": [dataclasses.asdict(r) for r in bom.rounds],
-        "ripple": dataclasses.asdict(bom.ripple) if bom.ripple else None,
-        "total_cost": bom.total_cost,
-        "complete": bom.complete,
-        "cautions": [c.text for c in bom.cautions],
-    }
-    if bom.verification is not None:
-        document["verification"] = bom.verification.to_dict()
-    else:
-        document["verification"] = {"note": bom.verification_note}
-    return document
-
-
-def bom_json(bom: Bom) -> str:
-    """Return :func:`bom_document` as indented JSON text."""
-    return json_text(bom_document(bom))
-
-
-def bom_markdown(bom: Bom, plot_file: str | None = None) -> str:
-    """Return a Markdown design-review report: spec, stresses, BOM, notes, losses, cautions."""
-    spec = bom.spec
-    out = [f"# Design review: {spec.name or 'boost stage'}", ""]
-    if spec.notes:
-        out += [spec.notes, ""]
-    out += ["## Specification", "", markdown_table(("key", "value"), _spec_rows(bom)), ""]
-    out += [
-        "## Worst-case stresses",
-        "",
-        markdown_table(("figure", "value", "worst at"), _stress_rows(bom)),
-        "",
-    ]
-    out += [
-        "## Bill of materials",
-        "",
-        markdown_table(
-            (
-                "ref",
-                "role",
-                "qty",
-                "manufacturer",
-                "mpn",
-                "value",
-                "key ratings",
-                "unit price",
-                "extended",
-                "status",
-            ),
-            [_line_header(line) + [STATUS_WORDS[line.status]] for line in bom.lines],
-        ),
-        "",
-    ]
-    out += ["## Derating notes", ""]
-    for line in bom.lines:
-        out.append(f"### {line.designator} ({line.role})")
-        out.append("")
-        out += [f"- {note}" for note in line_notes(line, bom.profile.name)]
-        out.append("")
-    out += ["## Losses and efficiency", "", markdown_table(("item", "value"), _loss_rows(bom)), ""]
-    out += _verification_markdown(bom, plot_file)
-    out += ["## Cautions", ""] + [f"- {c.text}" for c in bom.cautions] + [""]
-    return "\n".join(out)
-
-
-def _verification_markdown(bom: Bom, plot_file: str | None) -> list[str]:
-    out = ["## Verification", ""]
-    if bom.verification is None:
-        return out + [bom.verification_note or "not verified", ""]
-    from partpick.render.verify import warning_sentence
-
-    result = bom.verification
-    out += [
-        "Exact periodic steady state of the switched circuit with the chosen parts, "
-        "regulated to the output voltage.",
-        "",
-    ]
-    rows = [
-        [
-            _eng(p.point.vin_v, "V"),
-            _eng(p.point.iout_a, "A"),
-            p.state.mode,
-            f"{p.state.duty:.3f}",
-            _eng(p.state.vout_ripple_v, "V"),
-            _eng(p.state.il_min_a, "A"),
-            _eng(p.state.il_max_a, "A"),
-            _percent(p.state.efficiency, 1),
-        ]
-        for p in result.points
-    ]
-    out.append(
-        markdown_table(
-            ("Vin", "Iout", "mode", "duty", "ripple p-p", "iL min", "iL max", "efficiency"), rows
-        )
-    )
-    out += [f"- {warning_sentence(w)}" for w in result.warnings]
-    if plot_file:
-        out += ["", f"![steady-state waveforms and efficiency]({plot_file})"]
-    return out + [""]
-
-
-def _spec_rows(bom: Bom) -> list[list[str]]:
-    s = bom.spec
-    return [
-        ["input voltage", f"{s.vin_min_v:g} – {s.vin_max_v:g} V"],
-        ["output", f"{s.vout_v:g} V at {_eng(s.iout_a, 'A')}"],
-        ["switching frequency", _eng(s.fsw_hz, "Hz")],
-        ["output ripple limit", _eng(s.vout_ripple_v, "V")],
-        ["ambient, maximum", f"{s.ambient_max_degc:g} °C"],
-        ["efficiency used for the currents", _percent(s.efficiency, 1)],
-        ["derating profile", bom.profile.name],
-        ["ranked by", bom.rank],
-    ]
-
-
-def _stress_rows(bom: Bom) -> list[list[str]]:
-    rows = []
-    for fig in bom.envelope.figures.values():
-        worst = "" if fig.worst_vin_v is None else f"{fig.worst_vin_v:.3g} V in"
-        rows.append([fig.label, _eng(fig.value, fig.unit), worst])
-    return rows
-
-
-def _loss_rows(bom: Bom) -> list[list[str]]:
-    rows = [[f"loss, {role}", _eng(v, "W")] for role, v in bom.losses_w.items()]
-    rows += [
-        ["loss, total", _eng(bom.total_loss_w, "W")],
-        ["efficiency (estimate)", _percent(bom.efficiency, 1)],
-        ["rounds", str(len(bom.rounds))],
-        ["total cost", _price(bom.total_cost)],
-    ]
-    if bom.ripple is not None:
-        r = bom.ripple
-        rows += [
-            ["inductor ripple, nominal L", _eng(r.il_ripple_nominal_a, "A")],
-            ["inductor ripple, minimum L", _eng(r.il_ripple_min_l_a, "A")],
-            ["output ripple", _eng(r.vout_ripple_v, "V")],
-            ["full load in CCM", "yes" if r.ccm_full_load else "no"],
-        ]
-    return rows
