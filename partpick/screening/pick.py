@@ -9,9 +9,12 @@ from __future__ import annotations
 
 from collections.abc import Callable
 from dataclasses import dataclass, field, replace
+from typing import TYPE_CHECKING
 
 import numpy as np
 
+from partpick.catalog.columns import read_columns
+from partpick.design.topologies import get_topology
 from partpick.errors import NotFoundError, ProfileError
 from partpick.fields import fields_of
 from partpick.screening import capacitor, diode, inductor, switch
@@ -25,6 +28,10 @@ from partpick.screening.checks import (
 )
 from partpick.screening.profiles import Profile
 from partpick.screening.roles import ROLE_KINDS, ROLES
+
+if TYPE_CHECKING:
+    from partpick.design.spec import Spec
+    from partpick.design.topologies.base import Envelope
 
 RANKS: tuple[str, ...] = ("loss", "cost", "size")
 # catalog fields read for every role besides the rule fields: identity, price and footprint
@@ -67,7 +74,7 @@ class PickResult:
 
     role: str
     profile: Profile
-    envelope: object
+    envelope: Envelope
     rank: str
     total: int
     passed: list[Outcome]
@@ -89,14 +96,12 @@ def role_rules(role: str) -> RoleRules:
 
 
 def screen_role(
-    db: str | None, spec, role: str, *, profile: Profile, max_parallel: int = 4
-) -> tuple[Screen, object]:
+    db: str | None, spec: Spec, role: str, *, profile: Profile, max_parallel: int = 4
+) -> tuple[Screen, Envelope]:
     """Return (every rule of ``role`` over every part of its kind, the stress envelope)."""
     rules = role_rules(role)
     if max_parallel < 1:
         raise ProfileError(profile.name, "must be a whole number of at least 1", "max_parallel")
-    from partpick.design.topologies import get_topology
-
     topology = get_topology(spec.topology)
     envelope = topology.envelope(spec)
     columns = read_role_columns(db, rules)
@@ -117,8 +122,6 @@ def with_core_data(screen: Screen, core: tuple[str, ...]) -> Screen:
 def read_role_columns(db: str | None, rules: RoleRules) -> dict[str, np.ndarray]:
     """Return the columns the role needs; a field its kind lacks (a diode has no length_mm)
     comes back all-missing, so every rule module sees the same keys."""
-    from partpick.catalog.columns import read_columns
-
     known = {f.name for f in fields_of(rules.kind)}
     wanted = tuple(dict.fromkeys(_COMMON_FIELDS + rules.fields))
     columns = read_columns(db, rules.kind, [n for n in wanted if n in known])
@@ -131,7 +134,7 @@ def read_role_columns(db: str | None, rules: RoleRules) -> dict[str, np.ndarray]
 
 def pick(
     db: str | None,
-    spec,
+    spec: Spec,
     role: str,
     *,
     profile: Profile,
@@ -183,14 +186,14 @@ class Explanation:
 
     role: str
     profile: Profile
-    envelope: object
+    envelope: Envelope
     outcome: Outcome
     operating_point: tuple
     max_parallel: int
 
 
 def explain(
-    db: str | None, spec, role: str, mpn: str, *, profile: Profile, max_parallel: int = 4
+    db: str | None, spec: Spec, role: str, mpn: str, *, profile: Profile, max_parallel: int = 4
 ) -> Explanation:
     """Return every check of the part ``mpn`` for ``role``; NotFoundError if it is not there."""
     screen, envelope = screen_role(db, spec, role, profile=profile, max_parallel=max_parallel)
@@ -207,8 +210,6 @@ def explain(
 
 def _where_else(db: str | None, mpn: str, kind: str) -> str:
     """Return a hint naming the roles that could take ``mpn`` if it is a part of another kind."""
-    from partpick.catalog.columns import read_columns
-
     for other in dict.fromkeys(ROLE_KINDS.values()):
         if other != kind and np.any(read_columns(db, other, ["mpn"])["mpn"] == mpn):
             roles = [r for r, k in ROLE_KINDS.items() if k == other]
