@@ -4,7 +4,8 @@ Each field is stored by its type:
 
 * float and int fields: one float64 array, NaN where missing;
 * bool fields: one int8 array, 1 / 0, and -1 where missing;
-* text and enum fields: the values' UTF-8 bytes, each ended by a NUL, as one uint8 array,
+* enum fields: one int8 array, the index of the value in the field's choices, -1 missing;
+* text fields: the values' UTF-8 bytes, each ended by a NUL, as one uint8 array,
   plus a bool mask ``__missing__<name>``. Splitting one decoded string is far faster than
   building or reading fixed-width unicode arrays.
 
@@ -28,7 +29,7 @@ import numpy as np
 
 from partpick.fields import Field, fields_of
 
-SNAPSHOT_VERSION = "2"
+SNAPSHOT_VERSION = "3"
 META = "__meta__"
 MISSING = "__missing__"
 
@@ -48,6 +49,11 @@ def encode_field(
     if f.type == "bool":
         flags = np.where(missing, -1, np.where(missing, False, values).astype(bool)).astype(np.int8)
         return {f.name: flags}
+    if f.type == "enum":  # the choices are fixed by the data dictionary: store their index
+        codes = np.full(count, -1, dtype=np.int8)
+        for index, choice in enumerate(f.choices):
+            codes[values == choice] = index
+        return {f.name: codes}
     texts = np.where(missing, "", values).tolist()
     joined = "\x00".join(texts) + "\x00" if texts else ""
     if joined.count("\x00") != len(texts):  # a NUL inside a value would shift every later one
@@ -65,6 +71,8 @@ def decode_field(arrays: dict[str, np.ndarray], f: Field) -> np.ndarray:
         out = (raw == 1).astype(object)
         out[raw < 0] = None
         return out
+    if f.type == "enum":
+        return np.array([*f.choices, None], dtype=object)[raw]  # code -1 picks the None
     texts = raw.tobytes().decode("utf-8").split("\x00")[:-1] if raw.size else []
     out = np.empty(len(texts), dtype=object)
     out[:] = texts
@@ -132,7 +140,7 @@ class SnapshotBuilder:
     def _members(self, stamp: tuple[str, str]) -> Iterator[tuple[str, np.ndarray]]:
         yield META, np.array([stamp[0], stamp[1], SNAPSHOT_VERSION])
         for f in self.fields:
-            keys = [f.name] if f.type in ("float", "int", "bool") else [f.name, MISSING + f.name]
+            keys = [f.name] if f.type != "text" else [f.name, MISSING + f.name]
             for key in keys:
                 path = self._spill / key
                 dtype = _spill_dtype(f, key)
@@ -146,4 +154,6 @@ class SnapshotBuilder:
 def _spill_dtype(f: Field, key: str) -> type:
     if key.startswith(MISSING):
         return np.bool_
-    return {"float": np.float64, "int": np.float64, "bool": np.int8}.get(f.type, np.uint8)
+    return {"float": np.float64, "int": np.float64, "bool": np.int8, "enum": np.int8}.get(
+        f.type, np.uint8
+    )

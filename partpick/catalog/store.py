@@ -80,6 +80,8 @@ def _sqlite_pragmas(dbapi_connection, _record) -> None:
     # NORMAL is durable at every checkpoint and safe against corruption in WAL mode.
     cursor.execute("PRAGMA synchronous=NORMAL")
     cursor.execute("PRAGMA foreign_keys=ON")
+    # Up to 64 MiB of page cache (default 2 MiB): a bulk import spills far less to the WAL.
+    cursor.execute("PRAGMA cache_size=-65536")
     cursor.close()
 
 
