@@ -27,6 +27,8 @@ ceramics; common practice, from memory). Loss (ranking): I_rms²·ESR/n
 
 from __future__ import annotations
 
+from typing import TYPE_CHECKING
+
 import numpy as np
 
 from partpick.losses import capacitor_esr_loss_w
@@ -40,6 +42,11 @@ from partpick.screening.checks import (
     operating_point,
     use_rule,
 )
+
+if TYPE_CHECKING:
+    from partpick.design.spec import Spec
+    from partpick.design.topologies.base import Envelope, Topology
+    from partpick.screening.profiles import Profile
 
 KIND = "capacitor"
 FIELDS: tuple[str, ...] = (
@@ -204,7 +211,14 @@ def _count_search(ripple_of_n, current_of_n, max_parallel: int) -> np.ndarray:
     return smallest_count(np.vstack(rows))
 
 
-def screen_output(columns, spec, envelope, topology, profile, max_parallel: int) -> Screen:
+def screen_output(
+    columns: dict[str, np.ndarray],
+    spec: Spec,
+    envelope: Envelope,
+    topology: Topology,
+    profile: Profile,
+    max_parallel: int,
+) -> Screen:
     """Return every output-capacitor rule over every capacitor in ``columns``."""
     use, c_eff, notes = _part_figures(columns, profile)
     esr = columns["esr_ohm"]
@@ -243,7 +257,14 @@ def screen_output(columns, spec, envelope, topology, profile, max_parallel: int)
     )  # fmt: skip
 
 
-def screen_input(columns, spec, envelope, topology, profile, max_parallel: int) -> Screen:
+def screen_input(
+    columns: dict[str, np.ndarray],
+    spec: Spec,
+    envelope: Envelope,
+    topology: Topology,
+    profile: Profile,
+    max_parallel: int,
+) -> Screen:
     """Return every input-capacitor rule over every capacitor in ``columns``."""
     use, c_eff, notes = _part_figures(columns, profile)
     esr = columns["esr_ohm"]

@@ -20,6 +20,8 @@ Loss (ranking): P above.
 
 from __future__ import annotations
 
+from typing import TYPE_CHECKING
+
 import numpy as np
 
 from partpick.losses import diode_conduction_loss_w, diode_recovery_loss_w
@@ -34,6 +36,11 @@ from partpick.screening.checks import (
     thermal_rule,
     use_rule,
 )
+
+if TYPE_CHECKING:
+    from partpick.design.spec import Spec
+    from partpick.design.topologies.base import Envelope, Topology
+    from partpick.screening.profiles import Profile
 
 KIND = "diode"
 FIELDS: tuple[str, ...] = (
@@ -124,7 +131,14 @@ def thermal_rules(columns, spec, profile) -> tuple[RuleResult, np.ndarray, list]
     return rule, np.where(qrr_missing, np.nan, loss_known), notes
 
 
-def screen(columns, spec, envelope, topology, profile, max_parallel: int) -> Screen:
+def screen(
+    columns: dict[str, np.ndarray],
+    spec: Spec,
+    envelope: Envelope,
+    topology: Topology,
+    profile: Profile,
+    max_parallel: int,
+) -> Screen:
     """Return every diode rule over every diode in ``columns``."""
     thermal, loss, notes = thermal_rules(columns, spec, profile)
     rules = (

@@ -17,7 +17,7 @@ Loss (for ranking): I_rms² · DCR at the part's minimum L
 
 from __future__ import annotations
 
-from typing import NamedTuple
+from typing import TYPE_CHECKING, NamedTuple
 
 import numpy as np
 
@@ -33,6 +33,11 @@ from partpick.screening.checks import (
     operating_point,
     use_rule,
 )
+
+if TYPE_CHECKING:
+    from partpick.design.spec import Spec
+    from partpick.design.topologies.base import Envelope, Topology
+    from partpick.screening.profiles import Profile
 
 KIND = "inductor"
 FIELDS: tuple[str, ...] = (
@@ -122,7 +127,14 @@ class _Stress(NamedTuple):
     il_rms_vin_v: np.ndarray
 
 
-def screen(columns, spec, envelope, topology, profile, max_parallel: int) -> Screen:
+def screen(
+    columns: dict[str, np.ndarray],
+    spec: Spec,
+    envelope: Envelope,
+    topology: Topology,
+    profile: Profile,
+    max_parallel: int,
+) -> Screen:
     """Return every inductor rule over every part in ``columns`` for ``spec``.
 
     The stresses come from ``topology.stresses_at`` at each part's own minimum inductance;

@@ -23,6 +23,8 @@ Loss (ranking): P above.
 
 from __future__ import annotations
 
+from typing import TYPE_CHECKING
+
 import numpy as np
 
 from partpick.losses import (
@@ -43,6 +45,11 @@ from partpick.screening.checks import (
     use_rule,
 )
 from partpick.screening.diode import junction_limit_degc, junction_temperature_degc
+
+if TYPE_CHECKING:
+    from partpick.design.spec import Spec
+    from partpick.design.topologies.base import Envelope, Topology
+    from partpick.screening.profiles import Profile
 
 KIND = "mosfet"
 FIELDS: tuple[str, ...] = (
@@ -131,7 +138,14 @@ def thermal_rules(columns, spec, envelope, profile) -> tuple[RuleResult, np.ndar
     return rule, np.where(incomplete, np.nan, loss), notes
 
 
-def screen(columns, spec, envelope, topology, profile, max_parallel: int) -> Screen:
+def screen(
+    columns: dict[str, np.ndarray],
+    spec: Spec,
+    envelope: Envelope,
+    topology: Topology,
+    profile: Profile,
+    max_parallel: int,
+) -> Screen:
     """Return every switch rule over every mosfet in ``columns``."""
     thermal, loss, notes = thermal_rules(columns, spec, envelope, profile)
     peak = envelope.figures["il_peak_max_a"]
