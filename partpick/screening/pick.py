@@ -280,15 +280,17 @@ def closest_failures(screen: Screen, indices: np.ndarray, top: int | None) -> np
     smallest worst overshoot (load = stress/limit of the worst failing rule), then mpn."""
     if indices.size == 0 or not screen.rules:
         return indices
-    codes = np.vstack([r.status[indices] for r in screen.rules])
-    loads = np.vstack([r.load[indices] for r in screen.rules])
-    failing = codes == FAIL
-    n_failing = failing.sum(axis=0).astype(float)
-    worst = np.where(failing, np.nan_to_num(loads, nan=np.inf), -np.inf).max(axis=0)
+    # over whole arrays (no gathers): how many rules fail, and the worst overshoot among them
+    n_failing = np.zeros(screen.size)
+    worst = np.full(screen.size, -np.inf)
+    for rule in screen.rules:
+        failing = rule.status == FAIL
+        n_failing += failing
+        load = np.where(np.isnan(rule.load), np.inf, rule.load)
+        worst = np.where(failing & (load > worst), load, worst)
     # one key, so that top-N needs a single partition: the failing-rule count dominates and
     # the overshoot (capped well above any real one) orders within it
-    closeness = np.zeros(screen.size)
-    closeness[indices] = n_failing * _RULE_WEIGHT + np.minimum(worst, _RULE_WEIGHT / 2)
+    closeness = n_failing * _RULE_WEIGHT + np.minimum(worst, _RULE_WEIGHT / 2)
     return ranked(indices, (closeness,), screen.columns["mpn"], top)
 
 
