@@ -134,3 +134,17 @@ def test_every_catalog_command_has_help(runner, command):
     result = runner.invoke(app, [command, "--help"])
     assert result.exit_code == 0, result.output
     assert "--db" in result.output
+
+
+def test_progress_bar_only_on_a_terminal_for_big_files(db_file):
+    from partpick.render.catalog import import_progress
+
+    with import_progress(Console(file=io.StringIO()), 10**8) as hook:
+        assert hook is None  # not a terminal: no bar
+    out = io.StringIO()
+    terminal = Console(file=out, force_terminal=True, width=100)
+    with import_progress(terminal, 10) as hook:
+        assert hook is None  # a small file needs no bar
+    with import_progress(terminal, 10**8) as hook:
+        import_catalog(db_file, [SMALL], "inductor", progress=hook)
+    assert "importing inductors_small.csv" in out.getvalue()
