@@ -222,7 +222,7 @@ def _bad_line_rejects(lines: list[int]) -> list[Reject]:
 
 def _validate(item: PreparedFile, frame: pd.DataFrame, lines: np.ndarray, done: int) -> Chunk:
     # Short rows leave NaN in their last cells; every converter reads NaN as missing.
-    keep = ~frame.eq("").all(axis=1).to_numpy()
+    keep = ~_blank_rows(frame)
     frame, lines = frame[keep], lines[keep]
     count = len(frame)
     values: dict[str, np.ndarray] = {}
@@ -252,6 +252,14 @@ def _manufacturer(column: np.ndarray | None, count: int) -> np.ndarray:
         return np.full(count, "", dtype=object)
     column[pd.isna(column)] = ""
     return column
+
+
+def _blank_rows(frame: pd.DataFrame) -> np.ndarray:
+    """Return a mask of empty lines; only rows whose first cell is empty are looked at whole."""
+    blank = frame.iloc[:, 0].eq("").to_numpy(copy=True)
+    if blank.any():
+        blank[blank] = frame[blank].eq("").all(axis=1).to_numpy()
+    return blank
 
 
 def _convert(frame: pd.DataFrame, match: ColumnMatch, item: PreparedFile) -> ColumnValues:
