@@ -263,3 +263,15 @@ def test_no_spill_files_are_left_behind(db_file, write_csv):
     import_catalog(db_file, [SMALL], "inductor")
     folder = snapshot_file(Path(db_file), "inductor").parent
     assert [p.name for p in folder.iterdir()] == ["inductor.npz"]
+
+
+def test_a_catalog_of_another_schema_version_is_refused(db_file):
+    open_engine(db_file)
+    dispose_engines()
+    conn = sqlite3.connect(db_file)
+    conn.execute("UPDATE catalog_meta SET value = '1' WHERE key = 'schema_version'")
+    conn.commit()
+    conn.close()
+    with pytest.raises(DatabaseError) as caught:
+        open_engine(db_file)
+    assert "new catalog file" in caught.value.reason

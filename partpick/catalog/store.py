@@ -18,6 +18,9 @@ from partpick.catalog.schema import PARTS_TABLES, catalog_meta, import_batches, 
 from partpick.errors import DatabaseError
 from partpick.fields import KINDS
 
+# 2: identity as a named unique index (droppable for bulk loads), no CHECK constraints.
+SCHEMA_VERSION = "2"
+
 __all__ = ["Batch", "count_parts", "list_batches", "open_engine", "resolve_db_url", "sqlite_file"]
 
 
@@ -71,6 +74,9 @@ def _new_engine(url: str) -> sa.Engine:
     except sa.exc.DatabaseError as exc:
         engine.dispose()
         raise DatabaseError(url, f"cannot be opened ({exc.orig})") from None
+    except DatabaseError:
+        engine.dispose()
+        raise
     return engine
 
 
@@ -88,9 +94,20 @@ def _sqlite_pragmas(dbapi_connection, _record) -> None:
 def _create_schema(engine: sa.Engine) -> None:
     with engine.begin() as conn:
         metadata.create_all(conn)
+        known = dict(conn.execute(select(catalog_meta.c.key, catalog_meta.c.value)).all())
+        version = known.get("schema_version", SCHEMA_VERSION)
+        if version != SCHEMA_VERSION:
+            raise DatabaseError(
+                str(engine.url),
+                f"made by another partpick version (schema {version}, this one reads "
+                f"{SCHEMA_VERSION}); import your CSV files into a new catalog file",
+            )
         _add_missing_columns(conn)
-        known = conn.execute(select(catalog_meta.c.key)).scalars().all()
-        defaults = {"generation": "0", "db_uuid": uuid.uuid4().hex, "schema_version": "1"}
+        defaults = {
+            "generation": "0",
+            "db_uuid": uuid.uuid4().hex,
+            "schema_version": SCHEMA_VERSION,
+        }
         missing = [{"key": k, "value": v} for k, v in defaults.items() if k not in known]
         if missing:
             conn.execute(catalog_meta.insert(), missing)
