@@ -16,7 +16,12 @@ import numpy as np
 import pandas as pd
 import sqlalchemy as sa
 
-from partpick.catalog.schema import identity_index_name, stored_fields, table_name
+from partpick.catalog.schema import (
+    IDENTITY_KEY_ORDER,
+    identity_index_name,
+    stored_fields,
+    table_name,
+)
 
 PROVENANCE = ("source_line", "source_file", "source_sha256", "imported_at", "batch_id")
 
@@ -167,7 +172,7 @@ def create_identity_index(conn: sa.Connection, kind: str) -> None:
     """Rebuild the unique identity index after a bulk load."""
     conn.exec_driver_sql(
         f"CREATE UNIQUE INDEX IF NOT EXISTS {identity_index_name(kind)} "
-        f"ON {table_name(kind)} (kind, manufacturer, mpn)"
+        f"ON {table_name(kind)} ({', '.join(IDENTITY_KEY_ORDER)})"
     )
 
 
