@@ -90,3 +90,29 @@ def test_after_a_failure_the_same_import_succeeds(db_file, write_csv, monkeypatc
     monkeypatch.undo()
     (report,) = import_catalog(db_file, [changed], "inductor")
     assert (report.added, report.updated, report.unchanged) == (1, 1, 5)
+
+
+def test_failure_during_a_bulk_load_restores_the_identity_index(
+    db_file, write_csv, catalog_dump, monkeypatch
+):
+    import sqlite3
+
+    import_catalog(db_file, [CATALOG_DATA / "capacitors_small.csv"], "capacitor")
+    before = catalog_dump(db_file)  # no inductors yet: the next import is a bulk load
+    _fail_on_call(monkeypatch, merge, "insert_rows", 2)
+    with pytest.raises(Injected):
+        import_catalog(db_file, [SMALL], "inductor", chunk_rows=2)
+    assert catalog_dump(db_file) == before
+    names = {row[0] for row in sqlite3.connect(db_file).execute(
+        "SELECT name FROM sqlite_master WHERE type = 'index'")}  # fmt: skip
+    assert "uq_inductor_identity" in names
+
+
+def test_failure_while_rebuilding_the_index_leaves_the_catalog_unchanged(
+    db_file, catalog_dump, monkeypatch
+):
+    before = catalog_dump(db_file)
+    _fail_on_call(monkeypatch, merge, "rebuild_identity_index", 1)
+    with pytest.raises(Injected):
+        import_catalog(db_file, [SMALL], "inductor")
+    assert catalog_dump(db_file) == before

@@ -37,7 +37,9 @@ def read_columns(
 
     Keys are ``mpn``, ``manufacturer`` and ``names`` (default: every field of the kind).
     Float and int fields are float64 with NaN where missing; text, enum and bool fields are
-    object arrays with None where missing.
+    object arrays with None where missing, except ``manufacturer``, which is "" where the
+    catalog does not know it (it is part of the identity). An SQLite file catalog is read
+    from its snapshot, rebuilt first if stale; other catalogs through SQL.
     """
     wanted = _wanted_fields(kind, names)
     url = resolve_db_url(db)

@@ -3,8 +3,8 @@
 A header matches a field when its folded text (lower case, no punctuation or spacing) equals
 the folded name or a folded synonym of a field of the kind (:mod:`partpick.fields`). A unit in
 the header (``"DCR (mΩ)"``, ``"Inductance [uH]"``, ``"Isat, A"``) scales the bare numbers of
-that column. A map file (TOML, documented in DEVELOPERS.md and the brief of this module below)
-names columns, gives units per field and sets constant fields.
+that column. A map file (TOML; commented examples in ``catalogs/maps/``) names columns,
+gives units per field and sets constant fields.
 
 Map file::
 
