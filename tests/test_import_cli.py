@@ -148,3 +148,18 @@ def test_progress_bar_only_on_a_terminal_for_big_files(db_file):
     with import_progress(terminal, 10**8) as hook:
         import_catalog(db_file, [SMALL], "inductor", progress=hook)
     assert "importing inductors_small.csv" in out.getvalue()
+
+
+def test_catalog_commands_load_pandas_and_sqlalchemy_only_when_run():
+    import json
+    import subprocess
+    import sys
+
+    code = (
+        "import sys, json\n"
+        "import partpick.cli.catalog, partpick.render.catalog\n"
+        "print(json.dumps(['pandas' in sys.modules, 'sqlalchemy' in sys.modules]))\n"
+    )
+    out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True)
+    assert out.returncode == 0, out.stderr
+    assert json.loads(out.stdout) == [False, False]  # so `partpick pick` starts fast

@@ -1,4 +1,8 @@
-"""Catalog commands: ``import`` CSV files, browse ``parts``, list import ``batches``."""
+"""Catalog commands: ``import`` CSV files, browse ``parts``, list import ``batches``.
+
+The catalog core is imported inside each command: it pulls in pandas and SQLAlchemy, and
+every other command (``pick`` above all) should not pay for them at start-up.
+"""
 
 from __future__ import annotations
 
@@ -8,9 +12,6 @@ from typing import Annotated
 
 import typer
 
-from partpick.catalog.importer import import_catalog
-from partpick.catalog.query import list_parts
-from partpick.catalog.store import list_batches
 from partpick.cli.common import DbOption, friendly_errors
 from partpick.errors import StrictImportError
 from partpick.render.catalog import (
@@ -53,6 +54,8 @@ def import_command(
     db: DbOption = None,
 ) -> None:
     """Import CSV catalog files; every file of one call goes in one transaction."""
+    from partpick.catalog.importer import import_catalog  # pandas and SQLAlchemy: load late
+
     console = make_console()
     total = sum(p.stat().st_size for p in files if p.is_file())
     try:
@@ -87,6 +90,8 @@ def parts_command(
     db: DbOption = None,
 ) -> None:
     """List catalog parts of one kind, optionally filtered."""
+    from partpick.catalog.query import list_parts
+
     parts = list_parts(db, kind, where or ())
     if output is PartsFormat.json:
         typer.echo(parts_json(parts))
@@ -99,6 +104,8 @@ def parts_command(
 @friendly_errors
 def batches_command(db: DbOption = None) -> None:
     """List the import batches: file, hash, time and counts."""
+    from partpick.catalog.store import list_batches
+
     render_batches(make_console(), list_batches(db))
 
 

@@ -9,6 +9,7 @@ import math
 from collections.abc import Callable, Iterator, Sequence
 from contextlib import contextmanager
 from pathlib import Path
+from typing import TYPE_CHECKING
 
 from rich import box
 from rich.console import Console
@@ -16,11 +17,13 @@ from rich.markup import escape
 from rich.progress import BarColumn, DownloadColumn, Progress, TextColumn, TimeRemainingColumn
 from rich.table import Table
 
-from partpick.catalog.importer import ImportProgress, ImportReport, Reject
-from partpick.catalog.store import Batch
 from partpick.fields import KIND_FIELDS, Field, fields_of
 from partpick.render.console import STYLE_FAIL, STYLE_HEADING, STYLE_MUTED, STYLE_UNVERIFIED
 from partpick.units import format_eng
+
+if TYPE_CHECKING:  # the catalog core pulls in pandas and SQLAlchemy; only commands need them
+    from partpick.catalog.importer import ImportProgress, ImportReport, Reject
+    from partpick.catalog.store import Batch
 
 REJECT_COLUMNS = ("line", "column", "value", "reason")
 # OWASP "CSV Injection": a cell starting with one of these may run as a spreadsheet formula.
