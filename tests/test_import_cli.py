@@ -163,3 +163,31 @@ def test_catalog_commands_load_pandas_and_sqlalchemy_only_when_run():
     out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True)
     assert out.returncode == 0, out.stderr
     assert json.loads(out.stdout) == [False, False]  # so `partpick pick` starts fast
+
+
+def test_a_locked_catalog_is_a_clear_error(runner, db_file, monkeypatch):
+    import sqlite3
+
+    import sqlalchemy as sa
+
+    from partpick.catalog import merge
+
+    def locked(*args, **kwargs):
+        raise sa.exc.OperationalError("INSERT", {}, sqlite3.OperationalError("database is locked"))
+
+    monkeypatch.setattr(merge, "insert_rows", locked)
+    result = runner.invoke(app, ["import", str(SMALL), "--kind", "inductor", "--db", db_file])
+    assert result.exit_code == 2, result.output
+    assert "database is locked" in result.output and "Traceback" not in result.output
+    assert count_parts(db_file)["inductor"] == 0
+
+
+def test_repeated_header_names_are_both_kept(db_file, write_csv):
+    import json
+    import sqlite3
+
+    text = "MPN,Inductance,Bin,Bin\nQM-1,1 uH,A1,B2\n"
+    (report,) = import_catalog(db_file, [write_csv(text)], "inductor")
+    assert report.unrecognised == ("Bin", "Bin (2)")
+    (extra,) = sqlite3.connect(db_file).execute("SELECT extra FROM parts_inductor").fetchone()
+    assert json.loads(extra) == {"Bin": "A1", "Bin (2)": "B2"}

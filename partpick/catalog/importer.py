@@ -25,7 +25,7 @@ from partpick.catalog.reading import WHOLE_ROW, PreparedFile, Reject, prepare_fi
 from partpick.catalog.schema import catalog_meta, import_batches
 from partpick.catalog.snapshot import SnapshotBuilder
 from partpick.catalog.store import bump_generation, open_engine, resolve_db_url, sqlite_file
-from partpick.errors import CatalogFormatError, NotFoundError, StrictImportError
+from partpick.errors import CatalogFormatError, DatabaseError, NotFoundError, StrictImportError
 from partpick.fields import KINDS
 
 CHUNK_ROWS = 50_000
@@ -96,6 +96,8 @@ def import_catalog(
                        for item in prepared]  # fmt: skip
             stamp = _stamp_after_bump(conn)
         _refresh_snapshot(db, kind, builder, stamp)
+    except sa.exc.OperationalError as exc:  # locked by another writer, disk full, read-only
+        raise DatabaseError(resolve_db_url(db), f"cannot be written ({exc.orig})") from None
     finally:
         if builder is not None:
             builder.discard()

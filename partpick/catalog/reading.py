@@ -122,7 +122,17 @@ def _read_header(name: str, fmt: FileFormat, skip_rows: int) -> tuple[str, ...]:
     if first.empty:
         raise CatalogFormatError(name, "no header row: the file has no lines to read")
     cells = [str(c).strip() for c in first.iloc[0].tolist()]
-    return tuple(cell or f"(column {i + 1})" for i, cell in enumerate(cells))
+    return _unique_names([cell or f"(column {i + 1})" for i, cell in enumerate(cells)])
+
+
+def _unique_names(headers: list[str]) -> tuple[str, ...]:
+    """Return the headers with repeats numbered ("Bin", "Bin (2)"), so extra data keeps both."""
+    seen: dict[str, int] = {}
+    named = []
+    for header in headers:
+        seen[header] = seen.get(header, 0) + 1
+        named.append(header if seen[header] == 1 else f"{header} ({seen[header]})")
+    return tuple(named)
 
 
 def _require_columns(name: str, kind: str, headers: tuple[str, ...], plan: HeaderPlan) -> None:
