@@ -218,13 +218,24 @@ def _write_chunks(
                 ImportProgress(item.path, chunk.bytes_done, item.format.size_bytes, written.rows)
             )
     if bulk:
-        repeats = merge.rebuild_identity_index(conn, item.kind, source[3])
-        if repeats and builder is not None:
-            builder.invalidate()  # the repeats were spilled but are gone from the table
-        written.kept -= len(repeats)
-        written.changed -= len(repeats)
-        written.rejects += _repeat_rejects(item, repeats)
+        _finish_bulk_load(conn, item, source[3], builder, written)
     return written
+
+
+def _finish_bulk_load(
+    conn: sa.Connection,
+    item: PreparedFile,
+    batch_id: int,
+    builder: SnapshotBuilder | None,
+    written: _Written,
+) -> None:
+    """Rebuild the identity index; reject and uncount the repeats it had to remove."""
+    repeats = merge.rebuild_identity_index(conn, item.kind, batch_id)
+    if repeats and builder is not None:
+        builder.invalidate()  # the repeats were spilled but are gone from the table
+    written.kept -= len(repeats)
+    written.changed -= len(repeats)
+    written.rejects += _repeat_rejects(item, repeats)
 
 
 def _unique_rows(conn, item, chunk, duplicates, source) -> tuple[list[tuple], list]:
