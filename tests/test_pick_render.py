@@ -105,3 +105,13 @@ def test_render_pick_on_a_fixed_console(tmp_path):
     # B misses saturation: needs 3.568/0.8 = 4.46 A at 6 V in; part has 4.4 A
     assert "needs Isat ≥ 4.46 A (3.57 A peak at 6 V in, 80 % use); part has 4.4 A" in text
     assert "3 passed, 1 unverified, 4 failed" in text
+
+
+def test_a_near_miss_never_reads_as_if_the_part_were_enough():
+    # 3.781 A at 90 % use needs 4.2011 A; with three digits both would print "4.2 A"
+    from partpick.render.pick import check_sentence
+    from partpick.screening.checks import Check
+
+    check = Check("rms", 3.781, 3.78, 4.2, 0.9, 0.9002, 6.0, "A", "fail")
+    assert "needs Irms ≥ 4.201 A" in check_sentence(check)
+    assert "part has 4.2 A" in check_sentence(check)

@@ -66,6 +66,15 @@ def _q(value: float | None, unit: str) -> str:
     return format_eng(value, unit)
 
 
+def _q_pair(first: float | None, second: float | None, unit: str) -> tuple[str, str]:
+    """Return both values as text, with enough digits that unequal values read unequal."""
+    for digits in (3, 4, 5, 6):
+        a, b = format_eng(first, unit, digits), format_eng(second, unit, digits)
+        if a != b or first == second:
+            break
+    return a, b
+
+
 def _pct(value: float | None) -> str:
     """Return a fraction as whole percent with the SI space, e.g. ``"80 %"``."""
     if value is None or not math.isfinite(value):
@@ -96,9 +105,10 @@ def _use_sentence(check: Check) -> str:
     unit, use = check.unit, check.derating or 1.0
     if check.status == "fail":
         needed = check.stress / use if check.stress is not None else None
+        needed_text, rating_text = _q_pair(needed, check.rating, unit)
         return (
-            f"{check.rule}: needs {label} ≥ {_q(needed, unit)} ({_q(check.stress, unit)} "
-            f"{what}{_at(check)}, {_pct(use)} use); part has {_q(check.rating, unit)}"
+            f"{check.rule}: needs {label} ≥ {needed_text} ({_q(check.stress, unit)} "
+            f"{what}{_at(check)}, {_pct(use)} use); part has {rating_text}"
         )
     return (
         f"{check.rule}: {label} {_q(check.rating, unit)} vs {_q(check.stress, unit)} {what}"
