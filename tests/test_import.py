@@ -77,9 +77,8 @@ def test_unchanged_rows_keep_the_provenance_of_their_last_change(db_file, write_
     import_catalog(db_file, [SMALL], "inductor")
     text = SMALL.read_text(encoding="utf-8").replace("32 mOhm", "33 mOhm")
     import_catalog(db_file, [write_csv(text, "second.csv")], "inductor")
-    import sqlite3
-
-    rows = dict(sqlite3.connect(db_file).execute("SELECT mpn, source_file FROM parts_inductor"))
+    parts = list_parts(db_file, "inductor", provenance=True)
+    rows = {p["mpn"]: p["source_file"] for p in parts}
     assert rows["QM-4R7-0630"] == "second.csv"
     assert rows["QM-1R0-0630"] == "inductors_small.csv"
 

@@ -13,7 +13,7 @@ from partpick.catalog.importer import import_catalog
 from partpick.catalog.query import list_parts, parse_condition
 from partpick.cli import app
 from partpick.errors import QueryError
-from partpick.fields import fields_of
+from partpick.fields import PROVENANCE_COLUMNS, fields_of
 from partpick.render.catalog import render_parts_table
 from tests.conftest import CATALOG_DATA
 
@@ -114,7 +114,9 @@ def test_json_is_keyed_by_canonical_fields_with_si_floats_and_null(runner, fille
     assert result.exit_code == 0, result.output
     parts = json.loads(result.output)
     assert len(parts) == 6
-    assert all(list(p) == [f.name for f in fields_of("inductor")] for p in parts)
+    keys = [f.name for f in fields_of("inductor")] + list(PROVENANCE_COLUMNS)
+    assert all(list(p) == keys for p in parts)
+    assert {p["source_file"] for p in parts} == {"inductors_small.csv"}
     part = {p["mpn"]: p for p in parts}["QM-4R7-0630"]
     assert part["inductance_h"] == pytest.approx(4.7e-6)  # 4.7 uH in henries
     assert part["dcr_ohm"] == pytest.approx(0.032)

@@ -15,6 +15,7 @@ import pytest
 from partpick.catalog.columns import read_columns
 from partpick.catalog.importer import import_catalog
 from partpick.catalog.location import snapshot_file
+from partpick.catalog.query import list_parts
 from partpick.catalog.store import (
     count_parts,
     dispose_engines,
@@ -91,17 +92,25 @@ def test_batches_record_file_hash_time_and_counts(db_file):
 
 
 def test_parts_carry_their_provenance(db_file):
+    import hashlib
+
     import_catalog(db_file, [SMALL], "inductor")
-    row = (
-        sqlite3.connect(db_file)
-        .execute(
-            "SELECT kind, source_file, source_sha256, imported_at, source_line, batch_id "
-            "FROM parts_inductor WHERE mpn = 'QM-4R7-0630'"
-        )
-        .fetchone()
+    (part,) = list_parts(db_file, "inductor", ["mpn=QM-4R7-0630"], provenance=True)
+    assert part["source_file"] == "inductors_small.csv"
+    assert part["source_sha256"] == hashlib.sha256(SMALL.read_bytes()).hexdigest()
+    assert part["imported_at"] == list_batches(db_file)[0].imported_at
+    assert part["source_line"] == 4  # line 4 of the file: the header is line 1
+    row = sqlite3.connect(db_file).execute(
+        "SELECT kind, batch_id FROM parts_inductor WHERE mpn = 'QM-4R7-0630'"
     )
-    assert row[0] == "inductor" and row[1] == "inductors_small.csv"
-    assert len(row[2]) == 64 and row[3] and row[4] == 4 and row[5] == 1  # line 4 of the file
+    assert row.fetchone() == ("inductor", 1)
+
+
+def test_provenance_is_kept_once_per_batch_not_per_part(db_file):
+    import_catalog(db_file, [SMALL], "inductor")
+    columns = {r[1] for r in sqlite3.connect(db_file).execute("PRAGMA table_info(parts_inductor)")}
+    assert {"source_line", "batch_id"} <= columns
+    assert not {"source_file", "source_sha256", "imported_at"} & columns
 
 
 def test_identity_is_unique_in_the_schema(db_file):

@@ -145,9 +145,8 @@ def _import_one(
 ) -> ImportReport:
     imported_at = dt.datetime.now(dt.UTC).isoformat(timespec="seconds")
     batch_id = _start_batch(conn, item, imported_at)
-    source = (Path(item.path).name, item.format.sha256, imported_at, batch_id)
     after_id = merge.last_row_id(conn, item.kind)
-    written = _write_chunks(conn, item, source, progress, chunk_rows, builder)
+    written = _write_chunks(conn, item, batch_id, progress, chunk_rows, builder)
     rejects = sorted(written.rejects, key=lambda r: r.line)
     rejected = len({r.line for r in rejects})
     if strict and rejects:
@@ -188,7 +187,7 @@ class _Written:
 def _write_chunks(
     conn: sa.Connection,
     item: PreparedFile,
-    source: tuple[str, str, str, int],
+    batch_id: int,
     progress: ProgressHook | None,
     chunk_rows: int,
     builder: SnapshotBuilder | None,
@@ -199,16 +198,16 @@ def _write_chunks(
         merge.drop_identity_index(conn, item.kind)
     elif builder is not None:
         builder.invalidate()  # the table keeps earlier parts the spill does not hold
-    duplicates = merge.DuplicateFinder(item.kind, source[3])
+    duplicates = merge.DuplicateFinder(item.kind, batch_id)
     for chunk in read_chunks(item, chunk_rows):
         if bulk:
-            rows = merge.row_tuples(item.kind, chunk.values, chunk.lines, source)
+            rows = merge.row_tuples(item.kind, chunk.values, chunk.lines, batch_id)
             written.changed += merge.insert_rows(conn, item.kind, rows)
             repeats: list[merge.Duplicate] = []
             if builder is not None:
                 builder.add(chunk.values, len(rows))
         else:
-            rows, repeats = _unique_rows(conn, item, chunk, duplicates, source)
+            rows, repeats = _unique_rows(conn, item, chunk, duplicates, batch_id)
             written.changed += merge.upsert_rows(conn, item.kind, rows)
         written.kept += len(rows)
         written.rows += chunk.row_count + sum(r.column == WHOLE_ROW for r in chunk.rejects)
@@ -218,7 +217,7 @@ def _write_chunks(
                 ImportProgress(item.path, chunk.bytes_done, item.format.size_bytes, written.rows)
             )
     if bulk:
-        _finish_bulk_load(conn, item, source[3], builder, written)
+        _finish_bulk_load(conn, item, batch_id, builder, written)
     return written
 
 
@@ -238,12 +237,12 @@ def _finish_bulk_load(
     written.rejects += _repeat_rejects(item, repeats)
 
 
-def _unique_rows(conn, item, chunk, duplicates, source) -> tuple[list[tuple], list]:
+def _unique_rows(conn, item, chunk, duplicates, batch_id) -> tuple[list[tuple], list]:
     """Return the chunk's upsert tuples without repeats of earlier rows, and the repeats."""
     values = chunk.values
     keep, repeats = duplicates.split(conn, values["manufacturer"], values["mpn"], chunk.lines)
     kept = {name: column[keep] for name, column in values.items()}
-    return merge.row_tuples(item.kind, kept, chunk.lines[keep], source), repeats
+    return merge.row_tuples(item.kind, kept, chunk.lines[keep], batch_id), repeats
 
 
 def _repeat_rejects(item: PreparedFile, repeats: list) -> list[Reject]:

@@ -23,7 +23,8 @@ from partpick.catalog.schema import (
     table_name,
 )
 
-PROVENANCE = ("source_line", "source_file", "source_sha256", "imported_at", "batch_id")
+# The file, hash and time of a row's import are kept once, in its import_batches row.
+PROVENANCE = ("source_line", "batch_id")
 
 
 @dataclass(frozen=True)
@@ -126,9 +127,9 @@ def _upsert_sql(kind: str) -> str:
 
 
 def row_tuples(
-    kind: str, values: dict[str, np.ndarray], lines: np.ndarray, source: tuple[str, str, str, int]
+    kind: str, values: dict[str, np.ndarray], lines: np.ndarray, batch_id: int
 ) -> list[tuple]:
-    """Return the upsert tuples of validated columns; ``source`` is (file, sha256, time, batch)."""
+    """Return the upsert tuples of validated columns, stamped with their line and ``batch_id``."""
     columns: list = [
         itertools.repeat(kind),
         values["manufacturer"].tolist(),
@@ -138,7 +139,7 @@ def row_tuples(
         column = values.get(name)
         columns.append(itertools.repeat(None) if column is None else column.tolist())
     columns.append(lines.tolist())
-    columns.extend(itertools.repeat(item) for item in source)
+    columns.append(itertools.repeat(batch_id))
     return list(zip(*columns, strict=False))
 
 

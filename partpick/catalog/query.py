@@ -14,14 +14,15 @@ import operator
 import re
 from collections.abc import Callable, Sequence
 from dataclasses import dataclass
+from pathlib import PurePath
 
 import sqlalchemy as sa
 
 from partpick.catalog.cells import BOOL_WORDS
-from partpick.catalog.schema import parts_table
+from partpick.catalog.schema import import_batches, parts_table
 from partpick.catalog.store import open_engine
 from partpick.errors import NotFoundError, QueryError, UnitError
-from partpick.fields import KINDS, Field, fields_of, fold_text
+from partpick.fields import KINDS, PROVENANCE_COLUMNS, Field, fields_of, fold_text
 from partpick.units import is_missing, parse_quantity
 
 _CONDITION_RE = re.compile(r"\s*([A-Za-z_][A-Za-z0-9_]*)\s*(<=|>=|!=|==|=|<|>)\s*(.*?)\s*")
@@ -99,10 +100,14 @@ def _clause(table: sa.Table, condition: Condition) -> sa.ColumnElement[bool]:
     return _OPERATORS[condition.op](column, sa.bindparam(None, condition.value))
 
 
-def list_parts(db: str | None, kind: str, where: Sequence[str] = ()) -> list[dict[str, object]]:
+def list_parts(
+    db: str | None, kind: str, where: Sequence[str] = (), *, provenance: bool = False
+) -> list[dict[str, object]]:
     """Return the parts of ``kind`` meeting every condition, as dicts keyed by field name.
 
     Values are SI floats (int for counts, bool for yes/no, str for text), None where missing.
+    With ``provenance``, each dict also has ``source_file`` (the file's name), ``source_sha256``,
+    ``imported_at`` (from the part's import batch) and ``source_line``, after the fields.
     Parts come ordered by manufacturer, then part number.
     """
     if kind not in KINDS:
@@ -111,14 +116,28 @@ def list_parts(db: str | None, kind: str, where: Sequence[str] = ()) -> list[dic
     table = parts_table(kind)
     names = [f.name for f in fields_of(kind)]
     query = sa.select(*(table.c[n] for n in names)).order_by(table.c.manufacturer, table.c.mpn)
+    if provenance:
+        batches = import_batches.c
+        query = query.add_columns(
+            batches.file, batches.sha256, batches.imported_at, table.c.source_line
+        ).outerjoin(import_batches, batches.id == table.c.batch_id)
     for condition in conditions:
         query = query.where(_clause(table, condition))
     with open_engine(db).connect() as conn:
         rows = conn.execute(query).all()
+    if provenance:
+        return [_with_provenance(_row_dict(names, row), row[len(names) :]) for row in rows]
     return [_row_dict(names, row) for row in rows]
 
 
 def _row_dict(names: list[str], row: Sequence) -> dict[str, object]:
-    part = dict(zip(names, row, strict=True))
+    part = dict(zip(names, row[: len(names)], strict=True))
     part["manufacturer"] = part["manufacturer"] or None  # stored "" only to keep identity unique
+    return part
+
+
+def _with_provenance(part: dict[str, object], source: Sequence) -> dict[str, object]:
+    file, sha256, imported_at, line = source
+    name = PurePath(file).name if file is not None else None  # the batch keeps the full path
+    part.update(zip(PROVENANCE_COLUMNS, (name, sha256, imported_at, line), strict=True))
     return part

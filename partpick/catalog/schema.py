@@ -6,7 +6,10 @@ Enum and kind values are checked by the importer, not by CHECK constraints: thos
 cost of a bulk insert (measured, 100,000 rows) for no gain, since only the importer writes.
 Each table holds the identity (``kind``, ``manufacturer``, ``mpn``, unique together), the
 kind's canonical fields as SI floats, ``extra`` (JSON text of the columns the importer did
-not recognise) and the provenance of the row (file, hash, time, line, batch).
+not recognise) and the provenance of the row: its ``source_line`` and the ``batch_id`` of the
+import that last changed it. The file, its sha256 and the import time are kept once per
+batch in ``import_batches`` (not repeated on 100,000 rows, which halved the size of a row) and
+joined back where parts are read (:func:`partpick.catalog.query.list_parts`).
 
 ``import_batches`` records every imported file; ``catalog_meta`` holds the generation counter
 that the columnar snapshot (:mod:`partpick.catalog.columns`) checks for freshness.
@@ -27,7 +30,7 @@ from sqlalchemy import (
     Text,
 )
 
-from partpick.fields import KINDS, PROVENANCE_COLUMNS, Field, fields_of
+from partpick.fields import KINDS, Field, fields_of
 
 IDENTITY_COLUMNS: tuple[str, ...] = ("kind", "manufacturer", "mpn")
 IDENTITY_KEY_ORDER: tuple[str, ...] = ("mpn", "manufacturer", "kind")  # same set, index order
@@ -83,13 +86,6 @@ def _column_for(f: Field) -> Column:
 
 
 def _parts_table(kind: str) -> Table:
-    provenance = {
-        "source_file": Column("source_file", Text),
-        "source_sha256": Column("source_sha256", String(64)),
-        "imported_at": Column("imported_at", String(32)),
-        "source_line": Column("source_line", Integer),
-    }
-    assert tuple(provenance) == PROVENANCE_COLUMNS
     return Table(
         table_name(kind),
         metadata,
@@ -99,7 +95,7 @@ def _parts_table(kind: str) -> Table:
         Column("mpn", Text, nullable=False),
         *(_column_for(f) for f in stored_fields(kind)),
         Column("extra", Text),
-        *provenance.values(),
+        Column("source_line", Integer),
         Column("batch_id", Integer, ForeignKey("import_batches.id")),
         # A named unique index rather than a table constraint, so a bulk load into an empty
         # table can drop it and rebuild it in one sorted pass (same transaction). The part

@@ -85,15 +85,19 @@ def parts_command(
         ),
     ] = None,
     output: Annotated[
-        PartsFormat, typer.Option("--format", help="table, csv or json (SI values).")
+        PartsFormat,
+        typer.Option(
+            "--format", help="table, csv or json (SI values; json adds each part's source)."
+        ),
     ] = PartsFormat.table,
     db: DbOption = None,
 ) -> None:
     """List catalog parts of one kind, optionally filtered."""
     from partpick.catalog.query import list_parts
 
-    parts = list_parts(db, kind, where or ())
-    if output is PartsFormat.json:
+    json_out = output is PartsFormat.json
+    parts = list_parts(db, kind, where or (), provenance=json_out)
+    if json_out:
         typer.echo(parts_json(parts))
     elif output is PartsFormat.csv:
         typer.echo(parts_csv(kind, parts), nl=False)
