@@ -201,14 +201,14 @@ def _write_chunks(
     duplicates = merge.DuplicateFinder(item.kind, batch_id)
     for chunk in read_chunks(item, chunk_rows):
         if bulk:
-            rows = merge.row_tuples(item.kind, chunk.values, chunk.lines, batch_id)
-            written.changed += merge.insert_rows(conn, item.kind, rows)
+            rows = merge.row_tuples(item.kind, chunk.values, chunk.lines)
+            written.changed += merge.insert_rows(conn, item.kind, batch_id, rows)
             repeats: list[merge.Duplicate] = []
             if builder is not None:
                 builder.add(chunk.values, len(rows))
         else:
-            rows, repeats = _unique_rows(conn, item, chunk, duplicates, batch_id)
-            written.changed += merge.upsert_rows(conn, item.kind, rows)
+            rows, repeats = _unique_rows(conn, item, chunk, duplicates)
+            written.changed += merge.upsert_rows(conn, item.kind, batch_id, rows)
         written.kept += len(rows)
         written.rows += chunk.row_count + sum(r.column == WHOLE_ROW for r in chunk.rejects)
         written.rejects += chunk.rejects + _repeat_rejects(item, repeats)
@@ -237,12 +237,12 @@ def _finish_bulk_load(
     written.rejects += _repeat_rejects(item, repeats)
 
 
-def _unique_rows(conn, item, chunk, duplicates, batch_id) -> tuple[list[tuple], list]:
+def _unique_rows(conn, item, chunk, duplicates) -> tuple[list[tuple], list]:
     """Return the chunk's upsert tuples without repeats of earlier rows, and the repeats."""
     values = chunk.values
     keep, repeats = duplicates.split(conn, values["manufacturer"], values["mpn"], chunk.lines)
     kept = {name: column[keep] for name, column in values.items()}
-    return merge.row_tuples(item.kind, kept, chunk.lines[keep], batch_id), repeats
+    return merge.row_tuples(item.kind, kept, chunk.lines[keep]), repeats
 
 
 def _repeat_rejects(item: PreparedFile, repeats: list) -> list[Reject]:

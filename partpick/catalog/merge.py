@@ -22,6 +22,7 @@ from partpick.catalog.schema import (
     stored_fields,
     table_name,
 )
+from partpick.fields import KINDS
 
 # The file, hash and time of a row's import are kept once, in its import_batches row.
 PROVENANCE = ("source_line", "batch_id")
@@ -51,8 +52,22 @@ def value_columns(kind: str) -> tuple[str, ...]:
 
 
 def insert_columns(kind: str) -> tuple[str, ...]:
-    """Return the columns of one upserted row, in tuple order."""
-    return ("kind", "manufacturer", "mpn") + value_columns(kind) + PROVENANCE
+    """Return the columns bound per upserted row, in tuple order.
+
+    ``kind`` and ``batch_id`` are the same on every row of a statement, so they are written
+    into it as literals (see :func:`_insert_head`) rather than bound 100,000 times.
+    """
+    return ("manufacturer", "mpn") + value_columns(kind) + ("source_line",)
+
+
+def _insert_head(kind: str, batch_id: int) -> str:
+    """Return ``INSERT INTO table (...) VALUES (...)`` for tuples in insert_columns order."""
+    if kind not in KINDS:  # the kind becomes SQL text: only the data dictionary's kinds
+        raise KeyError(kind)
+    names = ("kind", "batch_id") + insert_columns(kind)
+    quoted = ", ".join(f'"{c}"' for c in names)
+    marks = ", ".join("?" for _ in insert_columns(kind))
+    return f"INSERT INTO {table_name(kind)} ({quoted}) VALUES ('{kind}', {int(batch_id)}, {marks})"
 
 
 class DuplicateFinder:
@@ -104,42 +119,32 @@ def last_row_id(conn: sa.Connection, kind: str) -> int:
     return conn.exec_driver_sql(f"SELECT coalesce(max(id), 0) FROM {table_name(kind)}").scalar_one()
 
 
-def upsert_rows(conn: sa.Connection, kind: str, rows: Sequence[tuple]) -> int:
+def upsert_rows(conn: sa.Connection, kind: str, batch_id: int, rows: Sequence[tuple]) -> int:
     """Upsert rows (tuples in :func:`insert_columns` order); return the rows inserted or changed."""
     if not rows:
         return 0
     before = conn.exec_driver_sql("SELECT total_changes()").scalar_one()
-    conn.exec_driver_sql(_upsert_sql(kind), list(rows))
+    conn.exec_driver_sql(_upsert_sql(kind, batch_id), list(rows))
     return conn.exec_driver_sql("SELECT total_changes()").scalar_one() - before
 
 
-def _upsert_sql(kind: str) -> str:
+def _upsert_sql(kind: str, batch_id: int) -> str:
     table = table_name(kind)
-    names = insert_columns(kind)
-    quoted = ", ".join(f'"{c}"' for c in names)
-    marks = ", ".join("?" for _ in names)
     updates = ", ".join(f'"{c}" = excluded."{c}"' for c in value_columns(kind) + PROVENANCE)
     same = " AND ".join(f'{table}."{c}" IS excluded."{c}"' for c in value_columns(kind))
     return (
-        f"INSERT INTO {table} ({quoted}) VALUES ({marks}) "
+        f"{_insert_head(kind, batch_id)} "
         f"ON CONFLICT (kind, manufacturer, mpn) DO UPDATE SET {updates} WHERE NOT ({same})"
     )
 
 
-def row_tuples(
-    kind: str, values: dict[str, np.ndarray], lines: np.ndarray, batch_id: int
-) -> list[tuple]:
-    """Return the upsert tuples of validated columns, stamped with their line and ``batch_id``."""
-    columns: list = [
-        itertools.repeat(kind),
-        values["manufacturer"].tolist(),
-        values["mpn"].tolist(),
-    ]
+def row_tuples(kind: str, values: dict[str, np.ndarray], lines: np.ndarray) -> list[tuple]:
+    """Return the upsert tuples of validated columns (in :func:`insert_columns` order)."""
+    columns: list = [values["manufacturer"].tolist(), values["mpn"].tolist()]
     for name in value_columns(kind):
         column = values.get(name)
         columns.append(itertools.repeat(None) if column is None else column.tolist())
     columns.append(lines.tolist())
-    columns.append(itertools.repeat(batch_id))
     return list(zip(*columns, strict=False))
 
 
@@ -177,15 +182,10 @@ def create_identity_index(conn: sa.Connection, kind: str) -> None:
     )
 
 
-def insert_rows(conn: sa.Connection, kind: str, rows: Sequence[tuple]) -> int:
+def insert_rows(conn: sa.Connection, kind: str, batch_id: int, rows: Sequence[tuple]) -> int:
     """Insert rows (tuples in :func:`insert_columns` order) with one executemany; return count."""
     if rows:
-        names = insert_columns(kind)
-        quoted = ", ".join(f'"{c}"' for c in names)
-        marks = ", ".join("?" for _ in names)
-        conn.exec_driver_sql(
-            f"INSERT INTO {table_name(kind)} ({quoted}) VALUES ({marks})", list(rows)
-        )
+        conn.exec_driver_sql(_insert_head(kind, batch_id), list(rows))
     return len(rows)
 
 
