@@ -11,7 +11,8 @@ from __future__ import annotations
 
 import contextlib
 import datetime as dt
-from collections.abc import Callable, Sequence
+import gc
+from collections.abc import Callable, Iterator, Sequence
 from dataclasses import dataclass, field
 from pathlib import Path
 
@@ -91,7 +92,7 @@ def import_catalog(
     engine = open_engine(db)
     builder = _snapshot_builder(db, kind, len(prepared))
     try:
-        with engine.begin() as conn:
+        with _cycle_collector_paused(), engine.begin() as conn:
             reports = [_import_one(conn, item, strict, progress, chunk_rows, builder)
                        for item in prepared]  # fmt: skip
             stamp = _stamp_after_bump(conn)
@@ -102,6 +103,24 @@ def import_catalog(
         if builder is not None:
             builder.discard()
     return reports
+
+
+@contextlib.contextmanager
+def _cycle_collector_paused() -> Iterator[None]:
+    """Pause Python's cyclic garbage collector while the rows are checked and written.
+
+    A chunk makes about a million short-lived objects (a tuple per row, a float per cell).
+    Reference counting frees every one of them; the cycle collector only adds passes over
+    all live objects, triggered by the allocation bursts, which cost about a third of
+    building the rows (measured). It runs again as usual once the import is over.
+    """
+    was_enabled = gc.isenabled()
+    gc.disable()
+    try:
+        yield
+    finally:
+        if was_enabled:
+            gc.enable()
 
 
 def _snapshot_builder(db: str | None, kind: str, files: int) -> SnapshotBuilder | None:
