@@ -31,6 +31,7 @@ from partpick.verify.orbit import (
     second_moment,
 )
 from partpick.verify.regulation import regulated_orbit
+from partpick.verify.ringing import dcm_turn_on_node_voltage_v
 from partpick.verify.sampling import sample_segment, segment_extremes
 from partpick.verify.stage import Stage
 
@@ -220,9 +221,10 @@ def _formula_losses(solved: Orbit) -> dict[str, float]:
 
     Turn-off interrupts iL at the end of the on interval against the diode-clamped node
     (vo + V_F + R_D·iL). In CCM turn-on takes over iL(0) from the conducting diode, which then
-    blocks vo and gives up its Q_rr; in DCM the switch turns on at zero current with the node
-    resting at Vin, and the diode has already stopped conducting, so neither overlap nor
-    recovery loss occurs at turn-on ([EM] ch. 4-5).
+    blocks vo and gives up its Q_rr; in DCM the switch turns on at zero current after the
+    diode has stopped conducting, so neither overlap nor recovery loss occurs at turn-on
+    ([EM] ch. 4-5), and C_oss is discharged from wherever the idle ring has left the node
+    (:func:`_dcm_turn_on_v`).
     """
     circuit, stage = solved.circuit, solved.circuit.stage
     fsw, t_switch = stage.fsw_hz, stage.transition_time_s
@@ -240,12 +242,40 @@ def _formula_losses(solved: Orbit) -> dict[str, float]:
             stage.qrr_c, circuit.vout_rows["on"] @ first.z_start, fsw
         )
     else:
-        v_on, turn_on, recovery = circuit.vin_v, 0.0, 0.0
+        v_on, turn_on, recovery = _dcm_turn_on_v(solved), 0.0, 0.0
     return {
         "switching": float(turn_off + turn_on),
         "coss": float(losses.switch_coss_loss_w(stage.coss_f, v_on, fsw)),
         "diode_recovery": float(recovery),
     }
+
+
+def _dcm_turn_on_v(solved: Orbit) -> float:
+    """Return the switch-node voltage at turn-on in DCM, in V.
+
+    The node starts the idle interval at V0 = vo + V_F (the diode's drop at zero current)
+    and rings about Vin through L, its DCR and C_oss (the diode's junction capacitance
+    neglected) until the switch turns on; where the ring reaches ground the body diode
+    holds it at 0 V (:mod:`partpick.verify.ringing`). The interval model still keeps iL = 0
+    through the idle interval: the ring only stores ½·C_oss·(V0 − Vin)² back and forth, and
+    here it sets nothing but v_on. As the idle interval shrinks to zero v_on tends to V0, the
+    CCM turn-on voltage at the boundary, so the C_oss loss is continuous across it.
+    """
+    circuit, stage = solved.circuit, solved.circuit.stage
+    idle = solved.segments[-1]
+    v_start = float(circuit.vout_rows["idle"] @ idle.z_start) + stage.diode_vf_v
+    if stage.coss_f <= 0.0:
+        return v_start  # no capacitance on the node: nothing rings and nothing is lost
+    return float(
+        dcm_turn_on_node_voltage_v(
+            circuit.vin_v,
+            v_start,
+            stage.inductance_h,
+            stage.coss_f,
+            stage.dcr_ohm,
+            idle.duration_s,
+        )
+    )
 
 
 def _extremes(solved: Orbit) -> tuple[np.ndarray, np.ndarray, float | None]:

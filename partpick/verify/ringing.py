@@ -1,0 +1,182 @@
+"""The switch node of a boost in DCM: the ring while the inductor current rests at zero.
+
+When the diode stops conducting (iL = 0) the switch node is left at V0 ≈ vo + V_F. Neither
+semiconductor conducts, so the node is the capacitor of a series RLC circuit driven by Vin:
+Vin, the inductor L with its winding resistance R, and the switch-node capacitance C to
+ground. We take C = C_oss of the switch and neglect the diode's junction capacitance (which
+would add to C and slow the ring), the non-linearity of C_oss with voltage, and every damping
+but the winding resistance (core loss and the input capacitor's ESR damp a real ring faster).
+
+With i = C dv/dt and L di/dt = Vin − R i − v the node obeys
+LC v'' + RC v' + v = Vin, v(0) = V0, v'(0) = 0 (the current starts at zero), whose solution
+is the series RLC step response [NR]: with ΔV = V0 − Vin, α = R/(2L), ω0 = 1/√(LC),
+
+* underdamped (α < ω0), ω_d = √(ω0² − α²):
+  v(t) = Vin + ΔV·e^(−αt)·(cos ω_d t + (α/ω_d)·sin ω_d t);
+* critically damped (α = ω0): v(t) = Vin + ΔV·(1 + αt)·e^(−αt);
+* overdamped (α > ω0), β = √(α² − ω0²):
+  v(t) = Vin + ΔV·e^(−αt)·(cosh βt + (α/β)·sinh βt).
+
+The (α/ω_d)·sin term is what makes the initial current zero; at the valleys and crests
+(ω_d t = kπ) it vanishes and the deviation from Vin is ±ΔV·e^(−αkπ/ω_d).
+
+Where Vin − ΔV·e^(−απ/ω_d) < 0, which for light damping means V0 > 2·Vin, the first valley
+would take the node below ground; the switch's body diode conducts instead and holds the
+node at about 0 V (its forward drop neglected). We then take the node to stay at 0 V until the
+switch turns on: the natural zero-voltage turn-on of a DCM boost with Vout > 2·Vin [EM].
+Strictly the body diode conducts only until the reversed inductor current has returned to
+zero (about L·|iL|/Vin), after which the node rings again about Vin from 0 V; a long idle
+interval can therefore end with the node above 0 V, which this model does not follow.
+
+Only the turn-on C_oss loss uses this ring; the waveform model of
+:mod:`partpick.verify.orbit` keeps iL = 0 through the idle interval.
+
+References
+----------
+.. [EM] R. W. Erickson and D. Maksimovic, *Fundamentals of Power Electronics*, 3rd ed.,
+   Springer, 2020, ch. 5 (DCM: the ringing of the switch node while the inductor current is
+   zero).
+.. [NR] J. W. Nilsson and S. A. Riedel, *Electric Circuits*, ch. 8 (natural and step
+   response of the series RLC circuit).
+"""
+
+from __future__ import annotations
+
+import numpy as np
+from numpy.typing import ArrayLike
+
+__all__ = [
+    "dcm_ring_first_valley_v",
+    "dcm_ring_node_voltage_v",
+    "dcm_turn_on_node_voltage_v",
+]
+
+
+def _ring_rates(
+    inductance_h: ArrayLike, capacitance_f: ArrayLike, resistance_ohm: ArrayLike
+) -> tuple[np.ndarray, np.ndarray]:
+    """Return (α = R/(2L), ω0² = 1/(LC)), in 1/s and rad²/s²."""
+    inductance = np.asarray(inductance_h, dtype=float)
+    alpha = np.asarray(resistance_ohm, dtype=float) / (2.0 * inductance)
+    omega0_sq = 1.0 / (inductance * np.asarray(capacitance_f, dtype=float))
+    return alpha, omega0_sq
+
+
+def dcm_ring_node_voltage_v(
+    vin_v: ArrayLike,
+    v_start_v: ArrayLike,
+    inductance_h: ArrayLike,
+    capacitance_f: ArrayLike,
+    resistance_ohm: ArrayLike,
+    t_s: ArrayLike,
+) -> np.ndarray:
+    """Return the switch-node voltage t after the diode stopped conducting, in V (no clamp).
+
+    v(t) = Vin + (V0 − Vin)·e^(−αt)·(cos ω_d t + (α/ω_d)·sin ω_d t) with α = R/(2L),
+    ω0 = 1/√(LC), ω_d = √(ω0² − α²) when underdamped; (1 + αt)·e^(−αt) and
+    e^(−αt)·(cosh βt + (α/β)·sinh βt), β = √(α² − ω0²), replace the damped cosine when
+    critically damped and overdamped (see the module docstring).
+
+    vin_v: input voltage, in V; v_start_v: node voltage V0 when iL reached zero, in V;
+    inductance_h: L, in H (> 0); capacitance_f: switch-node capacitance C, in F (> 0);
+    resistance_ohm: series resistance R (the winding's), in Ω (≥ 0); t_s: time since iL
+    reached zero, in s (≥ 0).
+
+    References: Nilsson & Riedel, *Electric Circuits*, ch. 8 (series RLC step response);
+    Erickson & Maksimovic, *Fundamentals of Power Electronics*, 3rd ed., ch. 5.
+    """
+    vin = np.asarray(vin_v, dtype=float)
+    step = np.asarray(v_start_v, dtype=float) - vin
+    t = np.asarray(t_s, dtype=float)
+    alpha, omega0_sq = _ring_rates(inductance_h, capacitance_f, resistance_ohm)
+    spread = alpha**2 - omega0_sq
+    # each form gets its own rate only where it applies, so the other cannot overflow
+    omega_d = np.sqrt(np.where(spread < 0.0, -spread, 0.0))
+    beta = np.sqrt(np.where(spread > 0.0, spread, 0.0))
+    shape = np.where(
+        spread < 0.0, _underdamped_shape(alpha, omega_d, t), _overdamped_shape(alpha, beta, t)
+    )
+    return vin + step * shape
+
+
+def _underdamped_shape(alpha: np.ndarray, omega_d: np.ndarray, t: np.ndarray) -> np.ndarray:
+    """Return e^(−αt)·(cos ω_d t + (α/ω_d)·sin ω_d t), tending to (1 + αt)·e^(−αt) as ω_d → 0."""
+    # sin(ω_d t)/ω_d → t as ω_d → 0 (the critically damped limit)
+    phase = omega_d * t
+    safe = np.where(phase > 0.0, phase, 1.0)
+    sinc_t = np.where(phase > 1e-8, np.sin(phase) / safe, 1.0) * t
+    return np.exp(-alpha * t) * (np.cos(phase) + alpha * sinc_t)
+
+
+def _overdamped_shape(alpha: np.ndarray, beta: np.ndarray, t: np.ndarray) -> np.ndarray:
+    """Return e^(−αt)·(cosh βt + (α/β)·sinh βt) (β ≤ α), tending to (1 + αt)·e^(−αt) as β → 0.
+
+    Written with e^((β−α)t) and e^(−(β+α)t), which never overflow since β ≤ α.
+    """
+    slow, fast = np.exp((beta - alpha) * t), np.exp(-(beta + alpha) * t)
+    two_beta_t = 2.0 * beta * t
+    # e^(−αt)·sinh βt / β, by expm1 where βt is small so the difference keeps its digits
+    small = fast * np.expm1(np.minimum(two_beta_t, 1.0)) * 0.5
+    sinh_over_beta = np.where(
+        two_beta_t > 1e-8,
+        np.where(two_beta_t < 1.0, small, 0.5 * (slow - fast)) / np.where(beta > 0, beta, 1.0),
+        t * np.exp(-alpha * t),
+    )
+    return 0.5 * (slow + fast) + alpha * sinh_over_beta
+
+
+def dcm_ring_first_valley_v(
+    vin_v: ArrayLike,
+    v_start_v: ArrayLike,
+    inductance_h: ArrayLike,
+    capacitance_f: ArrayLike,
+    resistance_ohm: ArrayLike,
+) -> np.ndarray:
+    """Return the node voltage at the ring's first turning point, t = π/ω_d, in V.
+
+    v = Vin − (V0 − Vin)·e^(−απ/ω_d), α = R/(2L), ω_d = √(1/(LC) − α²); the sine term of
+    the ring is zero there. A critically damped or overdamped node does not overshoot and
+    settles towards Vin, which is returned. Arguments and units as for
+    :func:`dcm_ring_node_voltage_v`.
+
+    References: Nilsson & Riedel, *Electric Circuits*, ch. 8 (series RLC step response).
+    """
+    vin = np.asarray(vin_v, dtype=float)
+    step = np.asarray(v_start_v, dtype=float) - vin
+    alpha, omega0_sq = _ring_rates(inductance_h, capacitance_f, resistance_ohm)
+    spread = omega0_sq - alpha**2
+    omega_d = np.sqrt(np.where(spread > 0.0, spread, 1.0))
+    overshoot = np.where(spread > 0.0, np.exp(-alpha * np.pi / omega_d), 0.0)
+    return vin - step * overshoot
+
+
+def dcm_turn_on_node_voltage_v(
+    vin_v: ArrayLike,
+    v_start_v: ArrayLike,
+    inductance_h: ArrayLike,
+    capacitance_f: ArrayLike,
+    resistance_ohm: ArrayLike,
+    t_idle_s: ArrayLike,
+) -> np.ndarray:
+    """Return the node voltage the switch turns on against after an idle interval, in V.
+
+    v_on = v(t_idle) of :func:`dcm_ring_node_voltage_v`, except 0 V once the ring has reached
+    ground: where the first valley Vin − (V0 − Vin)·e^(−απ/ω_d) is below zero, the body diode
+    clamps the node at about 0 V from the instant v(t) first reaches 0 (before π/ω_d, where
+    v falls monotonically) and the node is taken to stay there. At t_idle = 0 this is V0,
+    the CCM turn-on voltage at the CCM/DCM boundary. t_idle_s: the idle interval, in s;
+    the other arguments and units as for :func:`dcm_ring_node_voltage_v`.
+
+    References: Erickson & Maksimovic, *Fundamentals of Power Electronics*, 3rd ed., ch. 5
+    (DCM ringing, zero-voltage turn-on when Vout > 2·Vin); Nilsson & Riedel, *Electric
+    Circuits*, ch. 8.
+    """
+    ring = (vin_v, v_start_v, inductance_h, capacitance_f, resistance_ohm)
+    t = np.asarray(t_idle_s, dtype=float)
+    node = dcm_ring_node_voltage_v(*ring, t)
+    alpha, omega0_sq = _ring_rates(*ring[2:])
+    spread = omega0_sq - alpha**2
+    first_valley_s = np.pi / np.sqrt(np.where(spread > 0.0, spread, 1.0))
+    reaches_ground = (spread > 0.0) & (dcm_ring_first_valley_v(*ring) < 0.0)
+    clamped = reaches_ground & ((t >= first_valley_s) | (node <= 0.0))
+    return np.where(clamped, 0.0, node)
