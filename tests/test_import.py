@@ -8,6 +8,7 @@ from __future__ import annotations
 
 import math
 
+import numpy as np
 import pytest
 
 from partpick.catalog.columns import read_columns
@@ -269,3 +270,24 @@ def test_short_row_reads_its_missing_cells_as_missing(db_file, write_csv):
     part = _by_mpn(db_file)["QM-2"]
     assert part["inductance_h"] == pytest.approx(10e-6)
     assert part["isat_a"] is None and part["shielded"] is None and part["lifecycle"] is None
+
+
+@pytest.mark.parametrize("rows", [1, 63, 64, 65, 2 * 64 + 5])
+def test_bulk_load_stores_every_row_in_file_order(db_file, write_csv, rows):
+    # Bulk loads insert rows in groups per statement (merge.ROWS_PER_STATEMENT); counts on
+    # both sides of a group boundary must keep every row, its values and its line.
+    body = "".join(
+        f"QM-{n:04d},Quillmark Magnetics,{n} uH,{n} A,{n} mOhm,yes,±20%,{n},Active\n"
+        for n in range(1, rows + 1)
+    )
+    (report,) = import_catalog(db_file, [write_csv(HEADER + "\n" + body)], "inductor")
+    assert (report.added, report.rejected) == (rows, 0)
+    columns = read_columns(db_file, "inductor", ["inductance_h", "isat_a", "dcr_ohm", "stock"])
+    n = np.arange(1, rows + 1)
+    assert list(columns["mpn"]) == [f"QM-{i:04d}" for i in n]
+    np.testing.assert_allclose(columns["inductance_h"], n * 1e-6)  # n uH
+    np.testing.assert_allclose(columns["isat_a"], n)  # n A
+    np.testing.assert_allclose(columns["dcr_ohm"], n * 1e-3)  # n mOhm
+    np.testing.assert_array_equal(columns["stock"], n)
+    lines = {p["mpn"]: p["source_line"] for p in list_parts(db_file, "inductor", provenance=True)}
+    assert lines == {f"QM-{i:04d}": i + 1 for i in n}  # the header is line 1

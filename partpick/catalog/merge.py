@@ -60,14 +60,15 @@ def insert_columns(kind: str) -> tuple[str, ...]:
     return ("manufacturer", "mpn") + value_columns(kind) + ("source_line",)
 
 
-def _insert_head(kind: str, batch_id: int) -> str:
-    """Return ``INSERT INTO table (...) VALUES (...)`` for tuples in insert_columns order."""
+def _insert_head(kind: str, batch_id: int, rows: int = 1) -> str:
+    """Return ``INSERT INTO table (...) VALUES (...), ...`` taking ``rows`` insert tuples."""
     if kind not in KINDS:  # the kind becomes SQL text: only the data dictionary's kinds
         raise KeyError(kind)
     names = ("kind", "batch_id") + insert_columns(kind)
     quoted = ", ".join(f'"{c}"' for c in names)
     marks = ", ".join("?" for _ in insert_columns(kind))
-    return f"INSERT INTO {table_name(kind)} ({quoted}) VALUES ('{kind}', {int(batch_id)}, {marks})"
+    one = f"('{kind}', {int(batch_id)}, {marks})"
+    return f"INSERT INTO {table_name(kind)} ({quoted}) VALUES {', '.join([one] * rows)}"
 
 
 class DuplicateFinder:
@@ -182,10 +183,26 @@ def create_identity_index(conn: sa.Connection, kind: str) -> None:
     )
 
 
+# Rows per INSERT of a bulk load: one statement step then stores many rows, which cuts the
+# per-row cost of executemany (bind, step, reset) by about a quarter (measured, 100,000
+# inductors); 64 x 20 parameters stays far below SQLite's limit of 32,766 per statement.
+ROWS_PER_STATEMENT = 64
+
+
 def insert_rows(conn: sa.Connection, kind: str, batch_id: int, rows: Sequence[tuple]) -> int:
-    """Insert rows (tuples in :func:`insert_columns` order) with one executemany; return count."""
-    if rows:
-        conn.exec_driver_sql(_insert_head(kind, batch_id), list(rows))
+    """Insert rows (tuples in :func:`insert_columns` order); return how many.
+
+    Whole groups of :data:`ROWS_PER_STATEMENT` rows go in as multi-row ``VALUES``, with one
+    executemany; the remainder one row per statement.
+    """
+    group = ROWS_PER_STATEMENT
+    whole = len(rows) - len(rows) % group
+    if whole:
+        flat = itertools.chain.from_iterable
+        params = [tuple(flat(rows[i : i + group])) for i in range(0, whole, group)]
+        conn.exec_driver_sql(_insert_head(kind, batch_id, group), params)
+    if whole < len(rows):
+        conn.exec_driver_sql(_insert_head(kind, batch_id), list(rows[whole:]))
     return len(rows)
 
 
