@@ -220,15 +220,16 @@ def _write_chunks(
     duplicates = merge.DuplicateFinder(item.kind, batch_id)
     for chunk in read_chunks(item, chunk_rows):
         if bulk:
-            rows = merge.row_tuples(item.kind, chunk.values, chunk.lines)
-            written.changed += merge.insert_rows(conn, item.kind, batch_id, rows)
+            added = merge.insert_rows(conn, item.kind, batch_id, chunk.values, chunk.lines)
+            written.changed += added
+            written.kept += added
             repeats: list[merge.Duplicate] = []
             if builder is not None:
-                builder.add(chunk.values, len(rows))
+                builder.add(chunk.values, added)
         else:
             rows, repeats = _unique_rows(conn, item, chunk, duplicates)
             written.changed += merge.upsert_rows(conn, item.kind, batch_id, rows)
-        written.kept += len(rows)
+            written.kept += len(rows)
         written.rows += chunk.row_count + sum(r.column == WHOLE_ROW for r in chunk.rejects)
         written.rejects += chunk.rejects + _repeat_rejects(item, repeats)
         if progress is not None:

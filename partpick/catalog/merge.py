@@ -189,21 +189,29 @@ def create_identity_index(conn: sa.Connection, kind: str) -> None:
 ROWS_PER_STATEMENT = 64
 
 
-def insert_rows(conn: sa.Connection, kind: str, batch_id: int, rows: Sequence[tuple]) -> int:
-    """Insert rows (tuples in :func:`insert_columns` order); return how many.
+def insert_rows(
+    conn: sa.Connection, kind: str, batch_id: int, values: dict[str, np.ndarray], lines: np.ndarray
+) -> int:
+    """Insert validated columns (as for :func:`row_tuples`) as new rows; return how many.
 
-    Whole groups of :data:`ROWS_PER_STATEMENT` rows go in as multi-row ``VALUES``, with one
-    executemany; the remainder one row per statement.
+    The cells are laid into one 2-d object array, a column assignment per field (in C, no
+    tuple per row). Viewed as groups of :data:`ROWS_PER_STATEMENT` rows, its lines are the
+    parameters of a multi-row ``VALUES`` executemany; the remainder goes one row a statement.
     """
+    count = len(lines)
+    names = insert_columns(kind)
+    block = np.empty((count, len(names)), dtype=object)
+    for j, name in enumerate(names):
+        block[:, j] = lines if name == "source_line" else values.get(name)  # None: missing
     group = ROWS_PER_STATEMENT
-    whole = len(rows) - len(rows) % group
+    whole = count - count % group
     if whole:
-        flat = itertools.chain.from_iterable
-        params = [tuple(flat(rows[i : i + group])) for i in range(0, whole, group)]
-        conn.exec_driver_sql(_insert_head(kind, batch_id, group), params)
-    if whole < len(rows):
-        conn.exec_driver_sql(_insert_head(kind, batch_id), list(rows[whole:]))
-    return len(rows)
+        params = block[:whole].reshape(-1, group * len(names)).tolist()
+        conn.exec_driver_sql(_insert_head(kind, batch_id, group), list(map(tuple, params)))
+    if whole < count:
+        rest = block[whole:].tolist()
+        conn.exec_driver_sql(_insert_head(kind, batch_id), list(map(tuple, rest)))
+    return count
 
 
 def remove_repeats(conn: sa.Connection, kind: str, batch_id: int) -> list[Duplicate]:
