@@ -135,7 +135,7 @@ def _upsert_sql(kind: str, batch_id: int) -> str:
     same = " AND ".join(f'{table}."{c}" IS excluded."{c}"' for c in value_columns(kind))
     return (
         f"{_insert_head(kind, batch_id)} "
-        f"ON CONFLICT (kind, manufacturer, mpn) DO UPDATE SET {updates} WHERE NOT ({same})"
+        f"ON CONFLICT ({', '.join(IDENTITY_KEY_ORDER)}) DO UPDATE SET {updates} WHERE NOT ({same})"
     )
 
 
