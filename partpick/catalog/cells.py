@@ -186,22 +186,21 @@ def _object_array(items: list) -> np.ndarray:
 def extra_json(frame: pd.DataFrame, columns: list[tuple[str, object]]) -> np.ndarray:
     """Return, per row, JSON text of the unrecognised ``columns`` ((header, frame key) pairs).
 
-    None for every row when there are no such columns. Each distinct cell is encoded once and
-    the row texts are joined column by column.
+    None for every row when there are no such columns. Each distinct cell is encoded once,
+    with its key and the separators around it, so a row's text is one array take per column
+    and one concatenation per further column.
     """
     if not columns:
         return np.full(len(frame), None, dtype=object)
-    joined: pd.Series | None = None
-    for header, key in columns:
+    joined: np.ndarray | None = None
+    last = len(columns) - 1
+    for index, (header, key) in enumerate(columns):
         codes, uniques = pd.factorize(frame[key], use_na_sentinel=False)
-        encoded = np.asarray([_json_cell(u) for u in uniques], dtype=object)[codes]
-        piece = (
-            json.dumps(header, ensure_ascii=False)
-            + ": "
-            + pd.Series(encoded, index=frame.index, dtype=object)
-        )
-        joined = piece if joined is None else joined + ", " + piece
-    return ("{" + joined + "}").to_numpy(dtype=object)
+        before = ("{" if index == 0 else ", ") + json.dumps(header, ensure_ascii=False) + ": "
+        after = "}" if index == last else ""
+        encoded = _object_array([before + _json_cell(u) + after for u in uniques])[codes]
+        joined = encoded if joined is None else joined + encoded
+    return joined
 
 
 def _json_cell(value: object) -> str:

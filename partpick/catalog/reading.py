@@ -252,6 +252,8 @@ def _validate(item: PreparedFile, frame: pd.DataFrame, lines: np.ndarray, done: 
     unrecognised = [(h, i) for i, h in enumerate(item.headers) if h in item.plan.unrecognised]
     values["extra"] = extra_json(frame, unrecognised)
     values["manufacturer"] = _manufacturer(values.get("manufacturer"), count)
+    if good.all():  # the common case: no copy of every column
+        return Chunk(values, lines, rejects, count, done)
     kept = {name: column[good] for name, column in values.items()}
     return Chunk(kept, lines[good], rejects, count, done)
 
