@@ -19,9 +19,9 @@ from partpick.errors import DatabaseError
 from partpick.fields import KINDS
 
 # 2: identity as a named unique index (droppable for bulk loads), no CHECK constraints.
-# 3: file, sha256 and import time live only in import_batches; parts keep line and batch;
-#    the identity index is (mpn, manufacturer), the kind being one per table.
-SCHEMA_VERSION = "3"
+# 3: file, sha256 and import time live only in import_batches; parts keep line and batch.
+# 4: the identity index is (mpn, manufacturer), the kind being one per table.
+SCHEMA_VERSION = "4"
 
 __all__ = ["Batch", "count_parts", "list_batches", "open_engine", "resolve_db_url", "sqlite_file"]
 
