@@ -128,6 +128,6 @@ def _rendered(bom, output_format: BomFormat, plot_name: str | None, report) -> s
 
 def _write_plot(bom, path: Path) -> str:
     """Write the verification plot beside the report; return its name for the Markdown link."""
-    from partpick.verify.plot import save_plot
+    from partpick.render.plot import save_plot
 
     return save_plot(path, bom.verification).name

@@ -187,7 +187,7 @@ def verify_command(
         duty=_quantity(duty, "fraction", "--duty") if duty is not None else None,
     )
     if plot is not None:
-        from partpick.verify.plot import save_plot  # matplotlib only when a plot is asked for
+        from partpick.render.plot import save_plot  # matplotlib only when a plot is asked for
 
         save_plot(plot, result)
     if output_format is VerifyFormat.json:
