@@ -3,7 +3,9 @@
 Each chunk goes in with one DBAPI ``executemany`` of ``INSERT ... ON CONFLICT DO UPDATE``,
 straight into the parts table, inside the caller's one transaction. A row that matches a
 stored part and carries the same values changes nothing. The counts come from SQLite itself:
-rows added are the new row ids, rows updated are the remaining changes.
+rows added are the new row ids, rows updated are the remaining changes. Into an empty table
+the rows go by plain multi-row INSERTs instead, and the identity index is built once at the
+end (see "bulk load" below).
 """
 
 from __future__ import annotations
