@@ -9,7 +9,15 @@ from typing import Annotated
 
 import typer
 
-from partpick.cli.common import EXIT_NO_PART, DbOption, friendly_errors
+from partpick.cli.common import (
+    EXIT_NO_PART,
+    DbOption,
+    MaxParallelOption,
+    ProfileOption,
+    Rank,
+    RankOption,
+    friendly_errors,
+)
 from partpick.cli.spec_options import with_spec_options
 from partpick.design.spec import Spec
 
@@ -23,14 +31,6 @@ class BomFormat(StrEnum):
     json = "json"
 
 
-class Rank(StrEnum):
-    """What the best part of a role minimises."""
-
-    loss = "loss"
-    cost = "cost"
-    size = "size"
-
-
 def register(app: typer.Typer) -> None:
     """Add the ``bom`` command to ``app``."""
     app.command("bom")(bom_command)
@@ -40,18 +40,12 @@ def register(app: typer.Typer) -> None:
 @with_spec_options
 def bom_command(
     spec: Spec,
-    profile: Annotated[
-        str, typer.Option("--profile", help="Derating profile: standard, high-rel or a TOML file.")
-    ] = "standard",
-    rank: Annotated[Rank, typer.Option("--rank", help="What the chosen part minimises.")] = (
-        Rank.loss
-    ),
+    profile: ProfileOption = "standard",
+    rank: RankOption = Rank.loss,
     alternates: Annotated[
         int, typer.Option("--alternates", min=0, max=10, help="Passed alternates listed per role.")
     ] = 2,
-    max_parallel: Annotated[
-        int, typer.Option("--max-parallel", min=1, max=16, help="Most capacitors in parallel.")
-    ] = 4,
+    max_parallel: MaxParallelOption = None,
     output_format: Annotated[
         BomFormat,
         typer.Option("--format", help="table (terminal), md (review report), csv or json."),
@@ -83,13 +77,14 @@ def bom_command(
     from partpick.render.exports import write_atomically
     from partpick.screening.profiles import load_profile
 
+    policy = load_profile(profile)
     bom = build_bom(
         db,
         spec,
-        profile=load_profile(profile),
+        profile=policy,
         rank=rank.value,
         alternates=alternates,
-        max_parallel=max_parallel,
+        max_parallel=max_parallel if max_parallel is not None else policy.max_parallel,
         verify=verify,
     )
     plot_name = None

@@ -5,6 +5,7 @@ from __future__ import annotations
 import functools
 import sys
 from collections.abc import Callable
+from enum import StrEnum
 from typing import Annotated, Any, TypeVar
 
 import typer
@@ -50,3 +51,29 @@ def friendly_errors(command: F) -> F:
 def echo_warning(text: str) -> None:
     """Print a warning line on stderr."""
     print(f"warning: {text}", file=sys.stderr)
+
+
+class Rank(StrEnum):
+    """What the passes of a role are ranked by (ties by cost, then mpn)."""
+
+    loss = "loss"
+    cost = "cost"
+    size = "size"
+
+
+ProfileOption = Annotated[
+    str,
+    typer.Option(
+        "--profile", help="Derating profile: standard, high-rel, or a TOML file extending one."
+    ),
+]
+RankOption = Annotated[Rank, typer.Option("--rank", help="Rank passes by loss, cost or size.")]
+MaxParallelOption = Annotated[
+    int | None,
+    typer.Option(
+        "--max-parallel",
+        min=1,
+        help="Most identical capacitors in parallel (default: the profile's max_parallel).",
+        show_default=False,
+    ),
+]

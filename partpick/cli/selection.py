@@ -13,7 +13,14 @@ from typing import Annotated
 
 import typer
 
-from partpick.cli.common import DbOption, friendly_errors
+from partpick.cli.common import (
+    DbOption,
+    MaxParallelOption,
+    ProfileOption,
+    Rank,
+    RankOption,
+    friendly_errors,
+)
 from partpick.cli.spec_options import with_spec_options
 from partpick.design.spec import Spec
 from partpick.screening.roles import ROLES
@@ -29,40 +36,16 @@ class PickFormat(StrEnum):
     json = "json"
 
 
-class Rank(StrEnum):
-    """What the passes are ranked by (ties by cost, then mpn)."""
-
-    loss = "loss"
-    cost = "cost"
-    size = "size"
-
-
 RoleOption = Annotated[
     str,
     typer.Option("--role", help=f"Role to fill: {', '.join(ROLES)}.", show_default=False),
 ]
-ProfileOption = Annotated[
-    str,
-    typer.Option(
-        "--profile", help="Derating profile: standard, high-rel, or a TOML file extending one."
-    ),
-]
-RankOption = Annotated[Rank, typer.Option("--rank", help="Rank passes by loss, cost or size.")]
 TopOption = Annotated[
     int | None,
     typer.Option(
         "--top",
         min=1,
         help=f"Parts per list (default: {TABLE_TOP_DEFAULT} in the table, all in JSON).",
-        show_default=False,
-    ),
-]
-MaxParallelOption = Annotated[
-    int | None,
-    typer.Option(
-        "--max-parallel",
-        min=1,
-        help="Most identical capacitors in parallel (default: the profile's max_parallel).",
         show_default=False,
     ),
 ]
