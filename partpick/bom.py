@@ -225,22 +225,10 @@ def _rounds_settled(rounds: list[LossRound]) -> bool:
 
 def _choose_line(result: PickResult, alternates: int) -> BomLine:
     role = result.role
-    if result.passed:
-        return BomLine(
-            role,
-            DESIGNATORS[role],
-            "passed",
-            result.passed[0],
-            tuple(result.passed[1 : 1 + alternates]),
-        )
-    if result.unverified:
-        return BomLine(
-            role,
-            DESIGNATORS[role],
-            "unverified",
-            result.unverified[0],
-            tuple(result.unverified[1 : 1 + alternates]),
-        )
+    for status, outcomes in (("passed", result.passed), ("unverified", result.unverified)):
+        if outcomes:
+            alternatives = tuple(outcomes[1 : 1 + alternates])
+            return BomLine(role, DESIGNATORS[role], status, outcomes[0], alternatives)
     return BomLine(
         role, DESIGNATORS[role], "no-part", None, closest_failures=tuple(result.failed[:3])
     )

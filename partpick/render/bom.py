@@ -27,6 +27,19 @@ from partpick.units import format_eng
 
 STATUS_STYLES = {"passed": STYLE_PASS, "unverified": STYLE_UNVERIFIED, "no-part": STYLE_FAIL}
 STATUS_WORDS = {"passed": "passed", "unverified": "UNVERIFIED", "no-part": "NO PART PASSES"}
+LINE_COLUMNS = (
+    "ref",
+    "role",
+    "qty",
+    "manufacturer",
+    "mpn",
+    "value",
+    "key ratings",
+    "unit price",
+    "extended",
+    "status",
+)
+"""Columns of a BOM line, in the terminal and in the Markdown report alike."""
 
 
 def eng(value: float | None, unit: str) -> str:
@@ -153,21 +166,10 @@ def _spec_panel(bom: Bom) -> Panel:
 
 def _lines_table(bom: Bom) -> Table:
     table = Table(title="parts", title_justify="left", show_lines=False)
-    for name in (
-        "ref",
-        "role",
-        "qty",
-        "manufacturer",
-        "mpn",
-        "value",
-        "key ratings",
-        "unit",
-        "ext.",
-        "status",
-    ):
+    for name in LINE_COLUMNS:
         table.add_column(
             name,
-            justify="right" if name in ("qty", "unit", "ext.") else "left",
+            justify="right" if name in ("qty", "unit price", "extended") else "left",
             no_wrap=name in ("ref", "mpn", "status", "qty"),
         )
     for line in bom.lines:

@@ -6,6 +6,7 @@ import dataclasses
 
 from partpick.bom import Bom
 from partpick.render.bom import (
+    LINE_COLUMNS,
     STATUS_WORDS,
     eng,
     line_header,
@@ -139,18 +140,7 @@ def bom_markdown(bom: Bom, plot_file: str | None = None) -> str:
         "## Bill of materials",
         "",
         markdown_table(
-            (
-                "ref",
-                "role",
-                "qty",
-                "manufacturer",
-                "mpn",
-                "value",
-                "key ratings",
-                "unit price",
-                "extended",
-                "status",
-            ),
+            LINE_COLUMNS,
             [line_header(line) + [STATUS_WORDS[line.status]] for line in bom.lines],
         ),
         "",
