@@ -326,3 +326,19 @@ def test_cautions_include_the_energy_of_the_chosen_bank(db, standard):
     # three 10 µF parts at 24 V: ½ · 30e-6 · 24² = 8.64 mJ (E = ½CV², any physics text)
     assert any("8.64 mJ" in t for t in texts)
     assert any("qualified engineer" in t for t in texts)
+
+
+@pytest.mark.parametrize("width", [80, 120])
+def test_terminal_view_never_cuts_a_part_number_or_status(db, standard, width):
+    from rich.console import Console
+
+    from partpick.render.bom import render_bom_table
+
+    buffer = io.StringIO()
+    bom = build_bom(db, load_spec(SPEC), profile=standard)
+    render_bom_table(bom, Console(file=buffer, width=width, color_system=None))
+    text = buffer.getvalue()
+    for mpn in ("BT-L120B", "BT-C106B25", "BT-C106A50", "BT-D340", "BT-N4020"):
+        assert mpn in text
+    assert max(len(line) for line in text.splitlines()) <= width
+    assert text.count("passed") >= 5

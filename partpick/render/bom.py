@@ -7,6 +7,7 @@ Everything a person reads about a BOM is phrased here or in
 
 from __future__ import annotations
 
+from rich import box
 from rich.console import Console, Group
 from rich.panel import Panel
 from rich.table import Table
@@ -39,7 +40,11 @@ LINE_COLUMNS = (
     "extended",
     "status",
 )
-"""Columns of a BOM line, in the terminal and in the Markdown report alike."""
+"""Columns of a BOM line in the Markdown report."""
+TERMINAL_COLUMNS = ("ref / role", "qty", "status", "part", "value", "key ratings", "price")
+"""Columns in the terminal, where cells stack (ref over role, mpn over maker) to save width."""
+WIDE_CONSOLE = 96
+"""Narrower consoles get the lines as stacked blocks instead of a table."""
 
 
 def eng(value: float | None, unit: str) -> str:
@@ -101,12 +106,12 @@ def line_value(line: BomLine) -> str:
     return f"{text} {extra}".strip()
 
 
-def line_ratings(line: BomLine) -> str:
+def line_ratings(line: BomLine, separator: str = ", ") -> str:
     """Return the key ratings of the chosen part, such as "Isat 7.2 A, Irms 6 A, DCR 21 mΩ"."""
     if line.choice is None:
         return ""
     part = line.choice.part
-    return ", ".join(
+    return separator.join(
         f"{label} {eng(_num(part.get(f)), u)}" for label, f, u in _RATING_FIELDS[line.role]
     )
 
@@ -140,7 +145,10 @@ def line_header(line: BomLine) -> list[str]:
 def render_bom_table(bom: Bom, console: Console) -> None:
     """Print the BOM to ``console``: spec, lines with notes, losses, totals and cautions."""
     console.print(_spec_panel(bom))
-    console.print(_lines_table(bom))
+    console.print(_lines_table(bom) if console.width >= WIDE_CONSOLE else _lines_list(bom))
+    alternates = _alternates_table(bom)
+    if alternates is not None:
+        console.print(alternates)
     console.print(_notes_table(bom))
     console.print(_summary_table(bom))
     _render_verification(bom, console)
@@ -165,30 +173,61 @@ def _spec_panel(bom: Bom) -> Panel:
 
 
 def _lines_table(bom: Bom) -> Table:
-    table = Table(title="parts", title_justify="left", show_lines=False)
-    for name in LINE_COLUMNS:
+    """Return the lines; the part cell stacks mpn over manufacturer to fit a terminal."""
+    table = Table(
+        title="parts", title_justify="left", show_lines=True, box=box.SIMPLE_HEAD, pad_edge=False
+    )
+    longest_mpn = max((len(line.choice.mpn) for line in bom.lines if line.choice), default=4)
+    for name in TERMINAL_COLUMNS:
+        table.add_column(
+            name,
+            justify="right" if name in ("qty", "price") else "left",
+            no_wrap=name in ("qty", "price"),
+            min_width=longest_mpn if name == "part" else None,
+        )
+    for line in bom.lines:
+        ref, role, qty, manufacturer, mpn, value, _, unit, extended = line_header(line)
+        part = Text(mpn, no_wrap=True)
+        part.append(f"\n{manufacturer}", style=STYLE_MUTED)
+        status = Text(STATUS_WORDS[line.status], style=STATUS_STYLES[line.status])
+        ratings = line_ratings(line, separator="\n")
+        reference = Text(ref, style=STYLE_HEADING)
+        reference.append(f"\n{role}", style=STYLE_MUTED)
+        cost = unit if line.qty <= 1 else f"{unit}\n×{qty} = {extended}"
+        table.add_row(reference, qty, status, part, value, ratings, cost)
+    return table
+
+
+def _lines_list(bom: Bom) -> Group:
+    """Return the lines as short stacked blocks, for consoles too narrow for the table."""
+    blocks: list[Text] = [Text("parts", style=STYLE_HEADING)]
+    for line in bom.lines:
+        ref, role, qty, manufacturer, mpn, value, ratings, unit, extended = line_header(line)
+        block = Text(f"{ref} ", style=STYLE_HEADING)
+        block.append(f"{role} ×{qty}  ")
+        block.append(STATUS_WORDS[line.status], style=STATUS_STYLES[line.status])
+        block.append(f"\n  {mpn}  ")
+        block.append(manufacturer, style=STYLE_MUTED)
+        block.append(f"\n  {value}; {ratings}\n  price {unit} each, {extended} for {qty}")
+        blocks.append(block)
+    return Group(*blocks)
+
+
+def _alternates_table(bom: Bom) -> Table | None:
+    rows = [(line.designator, alt) for line in bom.lines for alt in line.alternates]
+    if not rows:
+        return None
+    table = Table(title="alternates (next passed parts, best first)", title_justify="left")
+    for name in ("ref", "mpn", "manufacturer", "qty", "unit price", "extended"):
         table.add_column(
             name,
             justify="right" if name in ("qty", "unit price", "extended") else "left",
-            no_wrap=name in ("ref", "mpn", "status", "qty"),
+            no_wrap=name in ("ref", "mpn", "qty"),
         )
-    for line in bom.lines:
-        status = Text(STATUS_WORDS[line.status], style=STATUS_STYLES[line.status])
-        table.add_row(*line_header(line), status)
-        for alt in line.alternates:
-            table.add_row(
-                "",
-                "  alternate",
-                str(alt.count),
-                alt.manufacturer,
-                alt.mpn,
-                "",
-                "",
-                price(alt.unit_price),
-                price(alt.cost),
-                "",
-                style=STYLE_MUTED,
-            )
+    for ref, alt in rows:
+        table.add_row(
+            ref, alt.mpn, alt.manufacturer, str(alt.count), price(alt.unit_price), price(alt.cost)
+        )
     return table
 
 
