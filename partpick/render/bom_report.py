@@ -5,6 +5,7 @@ from __future__ import annotations
 import dataclasses
 
 from partpick.bom import Bom
+from partpick.design.topologies.base import GROUPS
 from partpick.render.bom import (
     LINE_COLUMNS,
     STATUS_WORDS,
@@ -17,6 +18,7 @@ from partpick.render.bom import (
     price,
 )
 from partpick.render.exports import csv_text, json_text, markdown_table
+from partpick.render.stress import GROUP_TITLES, format_figure_value
 from partpick.screening.checks import Outcome
 
 CSV_HEADER = (
@@ -133,7 +135,7 @@ def bom_markdown(bom: Bom, plot_file: str | None = None) -> str:
     out += [
         "## Worst-case stresses",
         "",
-        markdown_table(("figure", "value", "worst at"), _stress_rows(bom)),
+        markdown_table(("component", "figure", "value", "worst at"), _stress_rows(bom)),
         "",
     ]
     out += [
@@ -208,10 +210,15 @@ def _spec_rows(bom: Bom) -> list[list[str]]:
 
 
 def _stress_rows(bom: Bom) -> list[list[str]]:
+    """Return the envelope's figures grouped by component, in the stress report's order."""
     rows = []
-    for fig in bom.envelope.figures.values():
-        worst = "" if fig.worst_vin_v is None else f"{fig.worst_vin_v:.3g} V in"
-        rows.append([fig.label, eng(fig.value, fig.unit), worst])
+    for group in GROUPS:
+        for fig in bom.envelope.figures.values():
+            if fig.group == group:
+                worst = "" if fig.worst_vin_v is None else f"{fig.worst_vin_v:.3g} V in"
+                rows.append(
+                    [GROUP_TITLES.get(group, group), fig.label, format_figure_value(fig), worst]
+                )
     return rows
 
 
