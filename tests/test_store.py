@@ -165,10 +165,26 @@ def test_snapshot_is_written_at_import_and_used(db_file):
     stamp = np.load(snapshot)["__meta__"].tolist()
     generation = (
         sqlite3.connect(db_file)
-        .execute("SELECT value FROM catalog_meta WHERE key = 'generation'")
+        .execute("SELECT value FROM catalog_meta WHERE key = 'generation.inductor'")
         .fetchone()[0]
     )
     assert stamp[1] == generation
+
+
+def test_importing_one_kind_leaves_the_other_kinds_snapshots_fresh(db_file, write_csv, monkeypatch):
+    import_catalog(db_file, [SMALL], "inductor")
+    inductor_snapshot = snapshot_file(Path(db_file), "inductor").read_bytes()
+    import_catalog(
+        db_file, [write_csv("MPN,Capacitance,Voltage Rating\nOC-1,10 uF,50 V\n")], "capacitor"
+    )
+    assert snapshot_file(Path(db_file), "inductor").read_bytes() == inductor_snapshot
+    from partpick.catalog import columns
+
+    def no_rebuild(*args):
+        raise AssertionError("the inductor snapshot was taken for stale")
+
+    monkeypatch.setattr(columns, "write_snapshot", no_rebuild)
+    assert len(read_columns(db_file, "inductor")["mpn"]) == 6  # the rows of inductors_small.csv
 
 
 def test_stale_snapshot_is_rebuilt(db_file, write_csv, monkeypatch):

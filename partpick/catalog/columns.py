@@ -17,7 +17,7 @@ from pathlib import Path
 
 import numpy as np
 
-from partpick.catalog.location import resolve_db_url, snapshot_file, sqlite_file
+from partpick.catalog.location import generation_key, resolve_db_url, snapshot_file, sqlite_file
 from partpick.catalog.snapshot import (
     META,
     MISSING,
@@ -48,7 +48,7 @@ def read_columns(
         return _from_sql(url, kind, wanted)
     if not path.exists():
         return {f.name: _empty(f) for f in wanted}
-    stamp = _stamp(url, path)
+    stamp = _stamp(url, path, kind)
     arrays = _load_snapshot(snapshot_file(path, kind), stamp, wanted)
     if arrays is None:
         arrays = write_snapshot(url, kind)
@@ -78,13 +78,13 @@ def _connect(path: Path) -> sqlite3.Connection:
     return conn
 
 
-def _stamp(url: str, path: Path) -> tuple[str, str]:
-    """Return (db_uuid, generation) of the catalog, creating its tables first if it has none."""
+def _stamp(url: str, path: Path, kind: str) -> tuple[str, str]:
+    """Return (db_uuid, kind's generation), creating the catalog's tables first if it has none."""
     for attempt in range(2):
         try:
             with contextlib.closing(_connect(path)) as conn:
                 rows = dict(conn.execute("SELECT key, value FROM catalog_meta").fetchall())
-                return rows["db_uuid"], rows["generation"]
+                return rows["db_uuid"], rows.get(generation_key(kind), "0")
         except (sqlite3.OperationalError, KeyError):
             if attempt:
                 raise
@@ -132,7 +132,8 @@ def write_snapshot(url: str, kind: str) -> dict[str, np.ndarray]:
         rows = conn.execute(f"SELECT {names} FROM parts_{kind} ORDER BY id").fetchall()
         conn.execute("COMMIT")
     arrays = encode_rows(fields, rows)
-    arrays[META] = np.array([meta["db_uuid"], meta["generation"], SNAPSHOT_VERSION])
+    generation = meta.get(generation_key(kind), "0")
+    arrays[META] = np.array([meta["db_uuid"], generation, SNAPSHOT_VERSION])
     save_members(snapshot_file(path, kind), arrays.items())
     return arrays
 

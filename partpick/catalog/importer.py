@@ -95,7 +95,7 @@ def import_catalog(
         with _cycle_collector_paused(), engine.begin() as conn:
             reports = [_import_one(conn, item, strict, progress, chunk_rows, builder)
                        for item in prepared]  # fmt: skip
-            stamp = _stamp_after_bump(conn)
+            stamp = _stamp_after_bump(conn, kind)
         _refresh_snapshot(db, kind, builder, stamp)
     except sa.exc.OperationalError as exc:  # locked by another writer, disk full, read-only
         raise DatabaseError(resolve_db_url(db), f"cannot be written ({exc.orig})") from None
@@ -134,8 +134,8 @@ def _snapshot_builder(db: str | None, kind: str, files: int) -> SnapshotBuilder 
         return None
 
 
-def _stamp_after_bump(conn: sa.Connection) -> tuple[str, str]:
-    generation = bump_generation(conn)
+def _stamp_after_bump(conn: sa.Connection, kind: str) -> tuple[str, str]:
+    generation = bump_generation(conn, kind)
     db_uuid = conn.execute(
         select(catalog_meta.c.value).where(catalog_meta.c.key == "db_uuid")
     ).scalar_one()

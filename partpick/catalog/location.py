@@ -38,3 +38,8 @@ def sqlite_file(url: str) -> Path | None:
 def snapshot_file(db_file: Path, kind: str) -> Path:
     """Return the columnar snapshot of ``kind`` kept beside the database file."""
     return db_file.with_name(db_file.name + ".columns") / f"{kind}.npz"
+
+
+def generation_key(kind: str) -> str:
+    """Return the catalog_meta key of one kind's generation counter (snapshots are per kind)."""
+    return f"generation.{kind}"

@@ -13,7 +13,7 @@ from dataclasses import dataclass
 import sqlalchemy as sa
 from sqlalchemy import event, func, select
 
-from partpick.catalog.location import resolve_db_url, sqlite_file
+from partpick.catalog.location import generation_key, resolve_db_url, sqlite_file
 from partpick.catalog.schema import PARTS_TABLES, catalog_meta, import_batches, metadata
 from partpick.errors import DatabaseError
 from partpick.fields import KINDS
@@ -136,16 +136,27 @@ def dispose_engines() -> None:
         _ENGINES.popitem()[1].dispose()
 
 
-def bump_generation(conn: sa.Connection) -> int:
-    """Add one to the catalog generation inside the caller's transaction; return the new value."""
-    current = conn.execute(
-        select(catalog_meta.c.value).where(catalog_meta.c.key == "generation")
-    ).scalar_one()
-    new = int(current) + 1
-    conn.execute(
-        catalog_meta.update().where(catalog_meta.c.key == "generation").values(value=str(new))
-    )
-    return new
+def bump_generation(conn: sa.Connection, kind: str) -> int:
+    """Add one to the catalog's and to ``kind``'s generation in the caller's transaction.
+
+    Returns the kind's new generation. Snapshots are stamped per kind, so importing
+    capacitors leaves the inductor snapshot fresh.
+    """
+    new_values = {}
+    for key in ("generation", generation_key(kind)):
+        current = conn.execute(
+            select(catalog_meta.c.value).where(catalog_meta.c.key == key)
+        ).scalar_one_or_none()
+        new_values[key] = int(current or 0) + 1
+        if current is None:
+            conn.execute(catalog_meta.insert().values(key=key, value=str(new_values[key])))
+        else:
+            conn.execute(
+                catalog_meta.update()
+                .where(catalog_meta.c.key == key)
+                .values(value=str(new_values[key]))
+            )
+    return new_values[generation_key(kind)]
 
 
 def list_batches(db: str | None) -> list[Batch]:
