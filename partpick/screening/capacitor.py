@@ -197,6 +197,17 @@ def _part_figures(columns, profile):
     return use, c_eff, notes
 
 
+def _part_rules(columns, spec, profile) -> list[RuleResult]:
+    """Return the rules of the part itself, the same at the input and the output."""
+    return [
+        temperature_rule(
+            columns["temp_max_degc"], spec.ambient_max_degc,
+            profile.value("capacitor.temp_margin_degc"),
+        ),
+        lifecycle_rule(columns["lifecycle"]),
+    ]  # fmt: skip
+
+
 def _table(section: dict[str, float], prefix: str) -> dict[str, float]:
     return {k[len(prefix) :]: v for k, v in section.items() if k.startswith(prefix)}
 
@@ -243,16 +254,12 @@ def screen_output(
             ripple(count), spec.vout_ripple_v, np.isnan(esr), np.isnan(c_eff), vin_worst
         ),
         ripple_current_rule(icout, count, ripple_a, i_use, vin_worst),
-        temperature_rule(
-            columns["temp_max_degc"], spec.ambient_max_degc,
-            profile.value("capacitor.temp_margin_degc"),
-        ),
-        lifecycle_rule(columns["lifecycle"]),
-    )  # fmt: skip
+        *_part_rules(columns, spec, profile),
+    )
     loss = capacitor_esr_loss_w(icout, esr, count)
-    columns = {**columns, "capacitance_eff_f": c_eff, "voltage_use": use}
+    figures = {"capacitance_eff_f": c_eff, "voltage_use": use}
     return Screen(
-        "output-cap", KIND, columns, rules, count, loss, tuple(notes),
+        "output-cap", KIND, {**columns, **figures}, rules, count, loss, tuple(notes),
         operating_point(spec, envelope, USES_OUTPUT),
     )  # fmt: skip
 
@@ -290,16 +297,10 @@ def screen_input(
         rules.append(
             ripple_voltage_rule(ripple(count), limit_v, np.isnan(esr), np.isnan(c_eff), vin_worst)
         )
-    rules += [
-        temperature_rule(
-            columns["temp_max_degc"], spec.ambient_max_degc,
-            profile.value("capacitor.temp_margin_degc"),
-        ),
-        lifecycle_rule(columns["lifecycle"]),
-    ]  # fmt: skip
+    rules += _part_rules(columns, spec, profile)
     loss = capacitor_esr_loss_w(icin, esr, count)
-    columns = {**columns, "capacitance_eff_f": c_eff, "voltage_use": use}
+    figures = {"capacitance_eff_f": c_eff, "voltage_use": use}
     return Screen(
-        "input-cap", KIND, columns, tuple(rules), count, loss, tuple(notes),
+        "input-cap", KIND, {**columns, **figures}, tuple(rules), count, loss, tuple(notes),
         operating_point(spec, envelope, USES_INPUT),
     )  # fmt: skip
