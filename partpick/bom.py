@@ -20,8 +20,10 @@ from partpick.design.topologies import get_topology
 from partpick.design.topologies.base import Caution, Envelope
 from partpick.screening.capacitor import effective_capacitance_f
 from partpick.screening.checks import Outcome
+from partpick.screening.diode import diode_loss_w
 from partpick.screening.pick import ROLES, PickResult, pick
 from partpick.screening.profiles import Profile
+from partpick.screening.switch import switch_loss_w
 from partpick.units import format_eng
 
 DESIGNATORS: dict[str, str] = {
@@ -178,7 +180,8 @@ def build_bom(
             for role in ROLES
         }
         lines = tuple(_choose_line(picks[role], alternates) for role in ROLES)
-        role_losses, notes = estimate_losses(round_spec, lines, profile)
+        envelope = picks[ROLES[0]].envelope
+        role_losses, notes = estimate_losses(round_spec, lines, profile, envelope)
         pout_w = round_spec.vout_v * round_spec.iout_a
         estimated = float(losses.efficiency_from_losses(pout_w, sum(role_losses.values())))
         choice = {line.role: line.choice.mpn if line.choice else None for line in lines}
@@ -186,7 +189,6 @@ def build_bom(
         if _rounds_settled(rounds):
             break
         efficiency_used = estimated
-    envelope = picks[ROLES[0]].envelope
     verification, verification_note = (
         verify_chosen_set(round_spec, lines, profile, rounds[-1].efficiency_estimated)
         if verify
@@ -201,7 +203,7 @@ def build_bom(
         rounds=tuple(rounds),
         losses_w=role_losses,
         efficiency=rounds[-1].efficiency_estimated,
-        ripple=stage_ripple(round_spec, lines, profile),
+        ripple=stage_ripple(round_spec, lines, profile, envelope),
         loss_notes=notes,
         picks=picks,
         verification=verification,
@@ -243,17 +245,18 @@ def _part_value(line: BomLine, name: str) -> float:
 
 
 def estimate_losses(
-    spec: Spec, lines: tuple[BomLine, ...], profile: Profile
+    spec: Spec, lines: tuple[BomLine, ...], profile: Profile, envelope: Envelope | None = None
 ) -> tuple[dict[str, float], tuple[str, ...]]:
     """Return the loss of each role with the chosen parts, in W, and notes on what was left out.
 
     The stresses are recomputed at the chosen inductor's nominal inductance, so the capacitor
     ripple currents are those of the real set. Each term is evaluated at its worst input
-    voltage, so the total is an upper estimate.
+    voltage, so the total is an upper estimate. ``envelope`` is the spec's, when the caller
+    already has it.
     """
     by_role: Mapping[str, BomLine] = {line.role: line for line in lines}
     topology = get_topology(spec.topology)
-    envelope = topology.envelope(spec)
+    envelope = envelope if envelope is not None else topology.envelope(spec)
     inductance_h = _part_value(by_role["inductor"], "inductance_h")
     if not np.isfinite(inductance_h):
         inductance_h = envelope.value("l_min_h")
@@ -283,31 +286,45 @@ def estimate_losses(
     return {role: float(v) if np.isfinite(v) else 0.0 for role, v in terms.items()}, notes
 
 
+def _known_or_zero(line: BomLine, name: str) -> float:
+    """Return an optional loss figure of the chosen part, 0 where the catalog lacks it."""
+    value = _part_value(line, name)
+    return value if np.isfinite(value) else 0.0
+
+
 def _diode_loss_w(spec: Spec, envelope: Envelope, line: BomLine) -> float:
-    qrr_c = _part_value(line, "qrr_c")
-    recovery = losses.diode_recovery_loss_w(
-        qrr_c if np.isfinite(qrr_c) else 0.0, envelope.value("vd_reverse_max_v"), spec.fsw_hz
+    return float(
+        diode_loss_w(
+            _part_value(line, "vf_v"),
+            spec.iout_a,
+            _known_or_zero(line, "qrr_c"),
+            envelope.value("vd_reverse_max_v"),
+            spec.fsw_hz,
+        )
     )
-    return float(losses.diode_conduction_loss_w(_part_value(line, "vf_v"), spec.iout_a) + recovery)
 
 
 def _switch_loss_w(
     spec: Spec, envelope: Envelope, line: BomLine, isw_rms_a: float, profile: Profile
 ) -> float:
-    vsw_v = envelope.value("vsw_max_v")
-    conduction = losses.switch_conduction_loss_w(
-        isw_rms_a, _part_value(line, "rds_on_ohm"), profile.value("switch.hot_factor")
+    return float(
+        switch_loss_w(
+            isw_rms_a,
+            _part_value(line, "rds_on_ohm"),
+            profile.value("switch.hot_factor"),
+            envelope.value("vsw_max_v"),
+            envelope.value("il_avg_max_a"),
+            _part_value(line, "qgd_c"),
+            spec.gate_drive_a,
+            _known_or_zero(line, "coss_f"),
+            spec.fsw_hz,
+        )
     )
-    transition_s = losses.switch_transition_time_s(_part_value(line, "qgd_c"), spec.gate_drive_a)
-    switching = losses.switch_switching_loss_w(
-        vsw_v, envelope.value("il_avg_max_a"), transition_s, transition_s, spec.fsw_hz
-    )
-    coss_f = _part_value(line, "coss_f")
-    coss = losses.switch_coss_loss_w(coss_f if np.isfinite(coss_f) else 0.0, vsw_v, spec.fsw_hz)
-    return float(conduction + switching + coss)
 
 
-def stage_ripple(spec: Spec, lines: tuple[BomLine, ...], profile: Profile) -> StageRipple | None:
+def stage_ripple(
+    spec: Spec, lines: tuple[BomLine, ...], profile: Profile, envelope: Envelope
+) -> StageRipple | None:
     """Return the inductor and output ripple of the chosen set, or None without an inductor."""
     by_role = {line.role: line for line in lines}
     inductor = by_role["inductor"]
@@ -320,7 +337,6 @@ def stage_ripple(spec: Spec, lines: tuple[BomLine, ...], profile: Profile) -> St
     topology = get_topology(spec.topology)
     l_min_part_h = inductance_h * (1.0 - tolerance)
     stress = topology.stresses_at(spec, np.array([inductance_h, l_min_part_h]))
-    envelope = topology.envelope(spec)
     return StageRipple(
         inductance_h=inductance_h,
         inductance_min_h=l_min_part_h,
