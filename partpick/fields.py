@@ -91,15 +91,6 @@ def split_header_units(text: str) -> tuple[str, tuple[str, ...]]:
     return words.strip(), tuple(units_found)
 
 
-def normalise_header(text: str) -> str:
-    """Return ``text`` folded for matching: lower case, no punctuation, spacing or bracketed unit.
-
-    ``"Saturation Current (Isat), A"`` and ``"saturation-current (isat)"`` both give
-    ``"saturationcurrentisat"``; ``"DCR (mΩ)"`` gives ``"dcr"``.
-    """
-    return fold_text(split_header_units(text)[0])
-
-
 _DIELECTRIC_CODES = (
     "c0g",
     "x5r",
@@ -665,11 +656,6 @@ def field_of(kind: str, name: str) -> Field:
         if f.name == name:
             return f
     raise KeyError(name)
-
-
-def numeric_fields(kind: str) -> tuple[Field, ...]:
-    """Return the float and int fields of ``kind``."""
-    return tuple(f for f in fields_of(kind) if f.type in ("float", "int"))
 
 
 PROVENANCE_COLUMNS: tuple[str, ...] = ("source_file", "source_sha256", "imported_at", "source_line")

@@ -23,10 +23,7 @@ from __future__ import annotations
 
 import math
 import re
-from collections.abc import Iterable
 from functools import lru_cache
-
-import numpy as np
 
 from partpick.errors import UnitError
 
@@ -280,29 +277,6 @@ def _check_bare(raw: str, value: float, unit: str) -> float:
     if unit == "count" and value != int(value):
         raise UnitError(raw, unit, "a count must be a whole number")
     return value
-
-
-def parse_many(
-    values: Iterable[object], unit: str, *, scale: float = 1.0, decimal_comma: bool = False
-) -> tuple[np.ndarray, list[str | None]]:
-    """Parse a sequence of cells once per distinct string.
-
-    Returns the SI values (NaN where missing or bad) and, per cell, None or the reason the
-    cell is not a value. Catalog columns repeat heavily, so the work is one parse per distinct
-    text followed by an array take.
-    """
-    cells = np.asarray(list(values) if not isinstance(values, np.ndarray) else values, dtype=object)
-    uniques, codes = np.unique(cells.astype(str), return_inverse=True)
-    parsed = np.empty(len(uniques), dtype=float)
-    reasons: list[str | None] = [None] * len(uniques)
-    for i, text in enumerate(uniques):
-        try:
-            parsed[i] = parse_quantity(str(text), unit, scale=scale, decimal_comma=decimal_comma)
-        except UnitError as exc:
-            parsed[i] = math.nan
-            reasons[i] = exc.reason
-    codes = codes.reshape(-1)
-    return parsed[codes], [reasons[c] for c in codes]
 
 
 _ENG_PREFIXES = [

@@ -11,7 +11,6 @@ from __future__ import annotations
 import itertools
 import math
 
-import numpy as np
 import pint
 import pytest
 from hypothesis import given
@@ -21,7 +20,6 @@ from partpick.errors import UnitError
 from partpick.units import (
     format_eng,
     is_missing,
-    parse_many,
     parse_quantity,
     unit_dimensions,
     unit_multiplier,
@@ -169,16 +167,6 @@ def test_unit_multiplier_refuses_other_dimensions(unit_text, unit):
 def test_unit_dimensions(text, has):
     found = unit_dimensions(text)
     assert (has in found) if has else found == ()
-
-
-def test_parse_many_reads_each_distinct_text_once():
-    cells = np.array(["4.7 uH", "4.7 uH", "10 uF", "", "4u7"], dtype=object)
-    values, reasons = parse_many(cells, "H")
-    # 4.7 µH = 4.7e-6 H (SI Brochure Table 7); 4u7 is the same value by IEC 60062
-    assert values[[0, 1, 4]] == pytest.approx([4.7e-6] * 3, rel=REL)
-    assert math.isnan(values[2]) and math.isnan(values[3])
-    assert reasons[2] is not None and "capacitance" in reasons[2]
-    assert reasons[0] is None and reasons[3] is None
 
 
 @pytest.mark.parametrize(

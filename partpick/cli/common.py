@@ -3,7 +3,6 @@
 from __future__ import annotations
 
 import functools
-import sys
 from collections.abc import Callable
 from enum import StrEnum
 from typing import Annotated, Any, TypeVar
@@ -46,11 +45,6 @@ def friendly_errors(command: F) -> F:
             raise typer.Exit(EXIT_INTERRUPTED) from None
 
     return wrapper  # type: ignore[return-value]
-
-
-def echo_warning(text: str) -> None:
-    """Print a warning line on stderr."""
-    print(f"warning: {text}", file=sys.stderr)
 
 
 class Rank(StrEnum):
