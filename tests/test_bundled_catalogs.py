@@ -416,22 +416,22 @@ def outcome_of(field_logger_picks, role: str, mpn: str):
         ("inductor", "HCW-PR1265-100M", "failed", {"lifecycle"}),  # obsolete
         ("inductor", "VD73-120K", "unverified", set()),  # no Isat given
         # 24.06 V > 0.8*30 V = 24.0 V
-        ("switch", "TSN3012Q", "failed", {"drain-voltage"}),
+        ("switch", "TS-QN30-12Q", "failed", {"drain-voltage"}),
         # 4.368 A > 0.6*7 A = 4.2 A
-        ("switch", "TSN4007T", "failed", {"drain-current"}),
-        ("switch", "TSP4010Q", "failed", {"channel"}),
+        ("switch", "TS-QN40-7T", "failed", {"drain-current"}),
+        ("switch", "TS-QP40-10Q", "failed", {"channel"}),
         # P = 11.26*0.095*1.5 + 0.5*24.06*3.765*(2*5e-9)*400e3 + 0.5*150e-12*24.06^2*400e3
         #   = 1.604 + 0.181 + 0.017 = 1.80 W; 60 + 1.80*50 = 150 degC > 150 - 25
-        ("switch", "KFN15010D", "failed", {"thermal"}),
+        ("switch", "KD-QN150-10D", "failed", {"thermal"}),
         # P = 0.304 + 0.091 + 0.017 = 0.41 W; 60 + 0.41*60 = 85 degC <= 125 degC
-        ("switch", "TSN4008Q", "passed", set()),
-        ("diode", "TS-SB2030A", "failed", {"reverse-voltage"}),  # 24.06 V > 0.8*30 V
-        ("diode", "TS-GP2M", "failed", {"recovery", "thermal"}),  # standard recovery, Qrr
+        ("switch", "TS-QN40-8Q", "passed", set()),
+        ("diode", "TS-ZK30-2A0A", "failed", {"reverse-voltage"}),  # 24.06 V > 0.8*30 V
+        ("diode", "TS-ZG1000-2A0B", "failed", {"recovery", "thermal"}),  # standard recovery, Qrr
         # 60 + 0.50*0.8*125 = 110 degC > 125 - 25 = 100 degC
-        ("diode", "KD-S2A45L", "failed", {"thermal"}),
+        ("diode", "KD-ZK45-2A0L", "failed", {"thermal"}),
         # 60 + (0.95*0.8 + 8e-9*24*400e3)*75 = 60 + 0.837*75 = 122.8 degC <= 125 degC
-        ("diode", "TS-FR2B", "passed", set()),
-        ("diode", "OM-SK2A40", "unverified", set()),  # no Tj max given
+        ("diode", "TS-ZF100-2A0B", "passed", set()),
+        ("diode", "OM-ZK40-2A0A", "unverified", set()),  # no Tj max given
         # 24.06 V > 0.5*35 V = 17.5 V (class II ceramic)
         ("output-cap", "OPC-12065-106K35", "failed", {"voltage"}),
         # n = 4: 0.34/4*4.368 = 0.371 V > 0.12 V; 1.548/4 = 0.39 A > 0.29 A

@@ -23,9 +23,9 @@ PARTS = [
     "--output-count",
     "3",
     "--diode",
-    "SLV-SB340",
+    "SLV-ZK40-3A0",
     "--switch",
-    "NTR-N40-07",
+    "NTV-QN40-20",
 ]
 POINT_KEYS = {
     "vin_v",
@@ -162,8 +162,8 @@ def _bom_document(with_part_fields: bool) -> dict:
         {"role": "inductor", "designator": "L1", "qty": 1, "mpn": "QM-150-1265"},
         {"role": "input-cap", "designator": "CIN", "qty": 2, "mpn": "BRV-106-X7R-50"},
         {"role": "output-cap", "designator": "COUT", "qty": 3, "mpn": "BRV-106-X7R-50"},
-        {"role": "diode", "designator": "D1", "qty": 1, "mpn": "SLV-SB340"},
-        {"role": "switch", "designator": "Q1", "qty": 1, "mpn": "NTR-N40-07"},
+        {"role": "diode", "designator": "D1", "qty": 1, "mpn": "SLV-ZK40-3A0"},
+        {"role": "switch", "designator": "Q1", "qty": 1, "mpn": "NTV-QN40-20"},
     ]
     for line in lines:
         line["manufacturer"] = "invented"

@@ -41,8 +41,8 @@ def parts(**changes: dict) -> dict[str, dict[str, object]]:
             "dielectric": "x7r",
             "esr_ohm": 0.004,
         },
-        "diode": {"mpn": "SLV-SB340", "diode_type": "schottky", "vf_v": 0.47, "qrr_c": None},
-        "switch": {"mpn": "NTR-N40-07", "rds_on_ohm": 0.007, "qgd_c": 2.5e-9, "coss_f": 200e-12},
+        "diode": {"mpn": "SLV-ZK40-3A0", "diode_type": "schottky", "vf_v": 0.47, "qrr_c": None},
+        "switch": {"mpn": "NTV-QN40-20", "rds_on_ohm": 0.007, "qgd_c": 2.5e-9, "coss_f": 200e-12},
     }
     for role, fields in changes.items():
         chosen[role.replace("_", "-")] = {**chosen[role.replace("_", "-")], **fields}
@@ -86,7 +86,7 @@ def test_stage_takes_every_figure_from_the_parts():
     assert stage.fsw_hz == 400e3 and stage.gate_drive_a == 1.0
     # a Schottky has no stored charge: a missing Qrr is 0, with a note saying so
     assert stage.qrr_c == 0.0
-    assert any("SLV-SB340" in note for note in stage.notes)
+    assert any("SLV-ZK40-3A0" in note for note in stage.notes)
 
 
 @pytest.mark.parametrize(

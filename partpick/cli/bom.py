@@ -70,7 +70,7 @@ def bom_command(
 
     Exits 3 when some role has no part at all, after printing what came closest.
 
-    Example: partpick bom logger.toml --format md --output review.md
+    Example: partpick bom catalogs/scenarios/field-logger.toml --format md --output review.md
     """
     from partpick.bom import build_bom
     from partpick.render import bom_report

@@ -39,7 +39,7 @@ def register(app: typer.Typer) -> None:
 def stress_command(spec: Spec, output_format: FormatOption = StressFormat.table) -> None:
     """Show the worst-case stresses of a design over its input range (SPEC.toml and/or options).
 
-    Example: partpick stress logger.toml --vin-min 5.5 --format json
+    Example: partpick stress catalogs/scenarios/field-logger.toml --vin-min 5.5 --format json
     """
     envelope = analyse(spec)
     if output_format is StressFormat.json:

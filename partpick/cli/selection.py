@@ -79,7 +79,7 @@ def pick_command(
 ) -> None:
     """Check every catalog part for one role against the design's stresses and rank the passes.
 
-    Example: partpick pick logger.toml --role inductor --rank cost --top 5
+    Example: partpick pick catalogs/scenarios/field-logger.toml --role inductor --rank cost --top 5
     """
     from partpick.render.console import make_console
     from partpick.screening.pick import explain, pick, role_rules

@@ -151,8 +151,9 @@ def verify_command(
 ) -> None:
     """Solve the exact steady state of the chosen parts at each operating point.
 
-    Example: partpick verify logger.toml --inductor QM-100-0630 --output-cap KC-226-X7R
-    --output-count 3 --diode SV-SB340 --switch NT-N30-12 --plot stage.png
+    Example: partpick verify catalogs/scenarios/field-logger.toml --inductor HCW-PR1265-150M
+    --output-cap OPC-1210S-106M50 --output-count 3 --diode TS-ZK40-3A0B --switch TS-QN40-8Q
+    --plot stage.png
     """
     given = {
         "--inductance": inductance,

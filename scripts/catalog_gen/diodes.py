@@ -61,7 +61,8 @@ DIODE_CURRENTS = np.array([0.5, 1, 1.5, 2, 3, 5, 8, 10, 15, 20, 30, 40])
 DIODE_MAKERS = ["Tessaly Semiconductor", "Kestrow Devices", "Ondrel Microsystems"]
 DIODE_PREFIXES = ["TS", "KD", "OM"]
 PACKAGE_NAMES = np.array([p[0] for p in DIODE_PACKAGES], dtype=object)
-TYPE_LETTERS = ["SB", "FR", "GP", "SC"]  # part-number letters, in TYPES order
+# part-number letters, in TYPES order: this project's own scheme, no type code in real use
+TYPE_LETTERS = ["ZK", "ZF", "ZG", "ZC"]
 
 # fmt: off
 HEADERS = {
@@ -153,7 +154,7 @@ def _spellings(layout: str) -> dict[str, list]:
 
 
 def _part_numbers(parts: _Diodes, rows: int, seed: int) -> np.ndarray:
-    """Return part numbers such as "TS-SB30-40-" (If in tenths of an ampere) plus a serial."""
+    """Return part numbers such as "TS-ZK30-40-" (If in tenths of an ampere) plus a serial."""
     return join_columns(
         parts.prefix,
         "-",

@@ -47,7 +47,7 @@ PACKAGE_NAMES = [p[0] for p in FET_PACKAGES]
 FET_VOLTAGES = np.array([20, 30, 40, 60, 80, 100, 150, 200, 250, 600])
 RDS_PACKAGE_OHM = 0.4e-3  # bond wires and leadframe: a floor under the silicon resistance
 FET_MAKERS = ["Tessaly Semiconductor", "Kestrow Devices", "Ondrel Microsystems"]
-FET_PREFIXES = ["TSF", "KFN", "OMN"]
+FET_PREFIXES = ["TS-Q", "KD-Q", "OM-Q"]  # this project's own scheme
 RDS_K = 6.4e-6  # ohm*mm^2 per V^2.4, fitted so a 40 V part on 2.5 mm^2 has about 18 mOhm
 
 # fmt: off
@@ -134,7 +134,7 @@ def _spellings(layout: str) -> dict[str, list]:
 
 
 def _part_numbers(parts: _Mosfets, rows: int, seed: int) -> np.ndarray:
-    """Return part numbers such as "TSF40-12-SO-8-" (Vds, then Id) plus a unique serial."""
+    """Return part numbers such as "TS-Q40-12-SO-8-" (Vds, then Id) plus a unique serial."""
     return join_columns(
         parts.prefix,
         coded(parts.vds_v, lambda x: f"{x:g}"),
