@@ -8,6 +8,7 @@ catalog.
 from __future__ import annotations
 
 import json
+import sys
 from enum import StrEnum
 from typing import Annotated
 
@@ -34,6 +35,7 @@ class PickFormat(StrEnum):
 
     table = "table"
     json = "json"
+    jsonl = "jsonl"
 
 
 RoleOption = Annotated[
@@ -51,7 +53,18 @@ TopOption = Annotated[
 ]
 FormatOption = Annotated[
     PickFormat,
-    typer.Option("--format", help="table for people, json (one object, SI units) for scripts."),
+    typer.Option(
+        "--format",
+        help="table for people; json (one object, SI units) or jsonl (one part per line) "
+        "for scripts.",
+    ),
+]
+MessagesOption = Annotated[
+    bool,
+    typer.Option(
+        "--messages",
+        help="In json/jsonl, add the sentence of each failing check to its figures.",
+    ),
 ]
 ExplainOption = Annotated[
     str | None,
@@ -75,6 +88,7 @@ def pick_command(
     max_parallel: MaxParallelOption = None,
     output_format: FormatOption = PickFormat.table,
     explain_mpn: ExplainOption = None,
+    messages: MessagesOption = False,
     db: DbOption = None,
 ) -> None:
     """Check every catalog part for one role against the design's stresses and rank the passes.
@@ -82,7 +96,7 @@ def pick_command(
     Example: partpick pick catalogs/scenarios/field-logger.toml --role inductor --rank cost --top 5
     """
     from partpick.render.console import make_console
-    from partpick.screening.pick import explain, pick, role_rules
+    from partpick.screening.pick import explain, pick, rank_role, role_rules
     from partpick.screening.profiles import load_profile
 
     role_rules(role)  # an unknown role is bad input before any work is done
@@ -92,13 +106,11 @@ def pick_command(
         found = explain(db, spec, role, explain_mpn, profile=policy, max_parallel=parallel)
         _show_explanation(found, output_format, make_console)
         return
-    if output_format is PickFormat.json:
-        result = pick(
+    if output_format is not PickFormat.table:
+        ranked = rank_role(
             db, spec, role, profile=policy, rank=rank.value, max_parallel=parallel, top=top
         )
-        from partpick.render.pick import pick_json
-
-        typer.echo(json.dumps(pick_json(result), indent=2, ensure_ascii=False))
+        _write_stream(ranked, output_format, messages)
         return
     shown = top if top is not None else TABLE_TOP_DEFAULT
     result = pick(db, spec, role, profile=policy, rank=rank.value, max_parallel=parallel, top=shown)
@@ -107,10 +119,21 @@ def pick_command(
     render_pick(result, make_console(), near_misses=shown)
 
 
+def _write_stream(ranked, output_format: PickFormat, messages: bool) -> None:
+    """Write every listed part to stdout as it is converted (no whole document in memory)."""
+    from partpick.render.pick_stream import write_pick_json, write_pick_jsonl
+
+    sys.stdout.flush()
+    out = sys.stdout.buffer
+    write = write_pick_json if output_format is PickFormat.json else write_pick_jsonl
+    write(ranked, out, messages=messages)
+    out.flush()
+
+
 def _show_explanation(found, output_format: PickFormat, make_console) -> None:
     from partpick.render.pick import explain_json, render_explain
 
-    if output_format is PickFormat.json:
+    if output_format is not PickFormat.table:
         typer.echo(json.dumps(explain_json(found), indent=2, ensure_ascii=False))
     else:
         render_explain(found, make_console())

@@ -224,39 +224,6 @@ def _check_json(check: Check) -> dict[str, object]:
     }
 
 
-def outcome_json(outcome: Outcome) -> dict[str, object]:
-    """Return a passed or unverified entry (unverified ones also carry ``missing``)."""
-    entry: dict[str, object] = {
-        "mpn": outcome.mpn,
-        "manufacturer": outcome.manufacturer,
-        "count": outcome.count,
-        "loss_w": _json_number(outcome.loss_w),
-        "unit_price": _json_number(outcome.unit_price),
-        "checks": [_check_json(c) for c in outcome.checks],
-        "notes": list(outcome.notes),
-    }
-    if outcome.status == "unverified":
-        entry["missing"] = list(outcome.missing)
-    return entry
-
-
-def failed_json(outcome: Outcome) -> dict[str, object]:
-    """Return a failed entry: every failing check as a reason with its sentence."""
-    return {
-        "mpn": outcome.mpn,
-        "manufacturer": outcome.manufacturer,
-        "reasons": [
-            {
-                "rule": c.rule,
-                "message": check_sentence(c, outcome.count),
-                "stress": _json_number(c.stress),
-                "limit": _json_number(c.limit),
-            }
-            for c in outcome.failing
-        ],
-    }
-
-
 def profile_json(profile) -> dict[str, object]:
     """Return the profile's name, origin and every figure (inf as null)."""
     return {
@@ -265,24 +232,6 @@ def profile_json(profile) -> dict[str, object]:
         "file": profile.file,
         "extends": profile.extends,
         "figures": {k: _json_number(v) for k, v in sorted(profile.figures.items())},
-    }
-
-
-def pick_json(result) -> dict[str, object]:
-    """Return the ``partpick pick --format json`` object."""
-    return {
-        "role": result.role,
-        "profile": profile_json(result.profile),
-        "stress": result.envelope.to_dict(),
-        "operating_point": _operating_point_json(result.operating_point),
-        "rank": result.rank,
-        "max_parallel": result.max_parallel,
-        "total": result.total,
-        "counts": dict(result.counts),
-        "fail_counts": dict(result.fail_counts),
-        "passed": [outcome_json(o) for o in result.passed],
-        "unverified": [outcome_json(o) for o in result.unverified],
-        "failed": [failed_json(o) for o in result.failed],
     }
 
 
@@ -313,11 +262,12 @@ def explain_json(explanation) -> dict[str, object]:
             }
             for c in o.checks
         ],
-        "operating_point": _operating_point_json(explanation.operating_point),
+        "operating_point": operating_point_json(explanation.operating_point),
     }
 
 
-def _operating_point_json(rows) -> dict[str, object]:
+def operating_point_json(rows) -> dict[str, object]:
+    """Return the operating point rows as {key: {value, unit, worst_vin_v}}."""
     return {
         key: {"value": _json_number(value), "unit": unit, "worst_vin_v": _json_number(vin)}
         for key, _label, value, unit, vin in rows

@@ -37,6 +37,7 @@ RANKS: tuple[str, ...] = ("loss", "cost", "size")
 # catalog fields read for every role besides the rule fields: identity, price and footprint
 _COMMON_FIELDS: tuple[str, ...] = ("mpn", "manufacturer", "unit_price", "length_mm", "width_mm")
 _PASSED, _UNVERIFIED, _FAILED = 0, 1, 2
+STATUS_NAMES: tuple[str, ...] = ("passed", "unverified", "failed")  # by outcome code
 _RULE_WEIGHT = 1e6
 
 
@@ -61,7 +62,8 @@ ROLE_RULES: dict[str, RoleRules] = {
     "diode": RoleRules(ROLE_KINDS["diode"], diode.FIELDS, diode.CORE, diode.screen),
     "switch": RoleRules(ROLE_KINDS["switch"], switch.FIELDS, switch.CORE, switch.screen),
 }
-__all__ = ["ROLES", "ROLE_RULES", "PickResult", "Explanation", "pick", "explain"]
+__all__ = ["ROLES", "ROLE_RULES", "PickResult", "RankedRole", "Explanation", "pick", "rank_role",
+           "explain"]  # fmt: skip
 
 
 @dataclass(frozen=True)
@@ -132,6 +134,55 @@ def read_role_columns(db: str | None, rules: RoleRules) -> dict[str, np.ndarray]
     return columns
 
 
+@dataclass(frozen=True)
+class RankedRole:
+    """Every part of one role classified and ordered, as index arrays into ``screen``.
+
+    ``orders`` maps "passed", "unverified" and "failed" to the parts of each list, best
+    first (cut to ``top`` when one was given). Nothing per part is built yet, so a writer can
+    stream a list of any length a slice at a time (:mod:`partpick.render.pick_stream`).
+    """
+
+    role: str
+    profile: Profile
+    envelope: Envelope
+    rank: str
+    max_parallel: int
+    screen: Screen
+    orders: dict[str, np.ndarray]
+    counts: dict[str, int]
+    fail_counts: dict[str, int]
+
+
+def rank_role(
+    db: str | None,
+    spec: Spec,
+    role: str,
+    *,
+    profile: Profile,
+    rank: str = "loss",
+    max_parallel: int = 4,
+    top: int | None = None,
+) -> RankedRole:
+    """Return every part of ``role``'s kind classified and ordered (see :func:`pick`)."""
+    if rank not in RANKS:
+        raise NotFoundError("rank", rank, f"Ranks are: {', '.join(RANKS)}.")
+    screen, envelope = screen_role(db, spec, role, profile=profile, max_parallel=max_parallel)
+    status = classify(screen)
+    keys = ranking_keys(screen, rank)
+    mpn = screen.columns["mpn"]
+    orders = {
+        "passed": ranked(np.flatnonzero(status == _PASSED), keys, mpn, top),
+        "unverified": ranked(np.flatnonzero(status == _UNVERIFIED), keys, mpn, top),
+        "failed": closest_failures(screen, np.flatnonzero(status == _FAILED), top),
+    }
+    counts = {name: int((status == code).sum()) for code, name in enumerate(STATUS_NAMES)}
+    return RankedRole(
+        role=role, profile=profile, envelope=envelope, rank=rank, max_parallel=max_parallel,
+        screen=screen, orders=orders, counts=counts, fail_counts=fail_counts(screen),
+    )  # fmt: skip
+
+
 def pick(
     db: str | None,
     spec: Spec,
@@ -148,32 +199,25 @@ def pick(
     mpn); failed are ordered closest to passing first (fewest failing rules, then the
     smallest overshoot of the worst one). With ``top=N`` each list holds at most N parts.
     """
-    if rank not in RANKS:
-        raise NotFoundError("rank", rank, f"Ranks are: {', '.join(RANKS)}.")
-    screen, envelope = screen_role(db, spec, role, profile=profile, max_parallel=max_parallel)
-    status = classify(screen)
-    keys = ranking_keys(screen, rank)
-    lists = {}
-    for code in (_PASSED, _UNVERIFIED):
-        order = ranked(np.flatnonzero(status == code), keys, screen.columns["mpn"], top)
-        lists[code] = outcomes_at(screen, order, code)
-    failed_order = closest_failures(screen, np.flatnonzero(status == _FAILED), top)
-    lists[_FAILED] = outcomes_at(screen, failed_order, _FAILED)
+    ranked_role = rank_role(
+        db, spec, role, profile=profile, rank=rank, max_parallel=max_parallel, top=top
+    )
+    screen = ranked_role.screen
+    lists = {
+        name: outcomes_at(screen, ranked_role.orders[name], code)
+        for code, name in enumerate(STATUS_NAMES)
+    }
     return PickResult(
         role=role,
         profile=profile,
-        envelope=envelope,
+        envelope=ranked_role.envelope,
         rank=rank,
         total=screen.size,
-        passed=lists[_PASSED],
-        unverified=lists[_UNVERIFIED],
-        failed=lists[_FAILED],
-        fail_counts=fail_counts(screen),
-        counts={
-            "passed": int((status == _PASSED).sum()),
-            "unverified": int((status == _UNVERIFIED).sum()),
-            "failed": int((status == _FAILED).sum()),
-        },
+        passed=lists["passed"],
+        unverified=lists["unverified"],
+        failed=lists["failed"],
+        fail_counts=ranked_role.fail_counts,
+        counts=ranked_role.counts,
         operating_point=screen.operating_point,
         max_parallel=max_parallel,
         kind=screen.kind,
@@ -312,7 +356,7 @@ def outcomes_at(screen: Screen, indices: np.ndarray, code: int) -> list[Outcome]
     notes = [(text, mask[indices].tolist()) for text, mask in screen.notes]
     names = list(cols)
     rows = zip(*(cols[n] for n in names), strict=True) if names else ()
-    status = ("passed", "unverified", "failed")[code]
+    status = STATUS_NAMES[code]
     out = []
     for j, row in enumerate(rows):
         checks = tuple(c for c in (r[j] for r in per_rule) if c is not None)
