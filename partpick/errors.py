@@ -165,3 +165,34 @@ class ParameterError(PartpickError, ValueError):
         value = f" (got {self.value!r})" if self.value is not None else ""
         hint = f"; give it with {self.option}" if self.option else ""
         return f"{where}{self.field}{value} {self.reason}{hint}"
+
+
+@dataclass(eq=False)
+class OutputPathError(PartpickError, OSError):
+    """A file partpick was asked to write cannot be written there (checked before any work)."""
+
+    path: str
+    reason: str
+    option: str = "--output"
+
+    def __str__(self) -> str:
+        return f"{self.option} {self.path}: {self.reason}"
+
+
+class ImportInterrupted(KeyboardInterrupt):
+    """Ctrl-C stopped an import; ``committed`` says whether its transaction had been committed.
+
+    A KeyboardInterrupt (not a PartpickError), so code that stops on Ctrl-C still does.
+    """
+
+    def __init__(self, committed: bool) -> None:
+        super().__init__(committed)
+        self.committed = committed
+
+    def __str__(self) -> str:
+        if self.committed:
+            return (
+                "interrupted after the import was committed: the catalog holds the new parts "
+                "(partpick batches lists it)"
+            )
+        return "interrupted before the commit; the catalog was not changed"

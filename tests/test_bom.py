@@ -316,8 +316,9 @@ def test_markdown_report_embeds_the_verification_plot(db, tmp_path):
     assert result.exit_code == 0, result.output
     text = out.read_text()
     assert "\n## Verification\n" in text
-    assert "![steady-state waveforms and efficiency](review.png)" in text
-    assert (tmp_path / "review.png").read_bytes().startswith(b"\x89PNG")
+    assert "![steady-state waveforms and efficiency](review.plot.png)" in text
+    assert (tmp_path / "review.plot.png").read_bytes().startswith(b"\x89PNG")
+    assert f"wrote {tmp_path / 'review.plot.png'}" in result.output
 
 
 def test_cautions_include_the_energy_of_the_chosen_bank(db, standard):

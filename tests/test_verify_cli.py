@@ -211,6 +211,10 @@ def test_not_a_bom_file(catalog, tmp_path):
 )
 def test_plot_writes_png_and_svg(catalog, tmp_path, name, magic):
     target = tmp_path / "plots" / name
+    missing_folder = run(SPEC, *PARTS, "--db", catalog, "--plot", str(target))
+    assert missing_folder.exit_code == 2  # refused before the solve, not made on the fly
+    assert "does not exist" in missing_folder.output
+    target.parent.mkdir()
     result = run(SPEC, *PARTS, "--db", catalog, "--plot", str(target))
     assert result.exit_code == 0, result.output
     data = target.read_bytes()

@@ -10,6 +10,7 @@ of one call is merged inside one transaction.
 from __future__ import annotations
 
 import contextlib
+import dataclasses
 import datetime as dt
 import gc
 from collections.abc import Callable, Iterator, Sequence
@@ -21,12 +22,19 @@ from sqlalchemy import select
 
 from partpick.catalog import columns, merge
 from partpick.catalog.headers import ColumnMatch, MapFile, check_map_for_kind, load_map
-from partpick.catalog.location import snapshot_file
+from partpick.catalog.location import generation_key, snapshot_file
 from partpick.catalog.reading import WHOLE_ROW, PreparedFile, Reject, prepare_file, read_chunks
 from partpick.catalog.schema import catalog_meta, import_batches
-from partpick.catalog.snapshot import SnapshotBuilder
+from partpick.catalog.snapshot import SnapshotBuilder, sweep_leftovers
+from partpick.catalog.spool import STDIN_NAME, spooled_inputs
 from partpick.catalog.store import bump_generation, open_engine, resolve_db_url, sqlite_file
-from partpick.errors import CatalogFormatError, DatabaseError, NotFoundError, StrictImportError
+from partpick.errors import (
+    CatalogFormatError,
+    DatabaseError,
+    ImportInterrupted,
+    NotFoundError,
+    StrictImportError,
+)
 from partpick.fields import KINDS
 
 CHUNK_ROWS = 50_000
@@ -78,31 +86,65 @@ def import_catalog(
     strict: bool = False,
     progress: ProgressHook | None = None,
     chunk_rows: int = CHUNK_ROWS,
+    before_commit: Callable[[list[ImportReport]], None] | None = None,
 ) -> list[ImportReport]:
     """Import ``files`` as parts of ``kind`` into the catalog ``db``; return one report per file.
 
     ``kind`` falls back to the map file's ``kind``. Every file is checked (encoding, header)
     before the database is touched, and all files are merged in one transaction.
+    ``before_commit`` is called with the reports inside the transaction (the CLI writes the
+    rejects file there), so its failure leaves the catalog unchanged. A file that is not a
+    regular file (a FIFO, ``-`` for stdin) is read once into a temporary copy first.
+    An interruption raises :class:`~partpick.errors.ImportInterrupted`, which says whether
+    the transaction had been committed.
     """
     mapping = load_map(map_file) if isinstance(map_file, str | Path) else map_file
     kind = _resolve_kind(kind, mapping, files)
     if mapping is not None:
         check_map_for_kind(mapping, kind)
-    prepared = [prepare_file(path, kind, mapping) for path in files]
+    with spooled_inputs(files) as readable:
+        prepared = [prepare_file(path, kind, mapping) for path in readable]
+        prepared = [_named_as_given(p, f) for p, f in zip(prepared, files, strict=True)]
+        return _import_prepared(db, kind, prepared, strict, progress, chunk_rows, before_commit)
+
+
+def _import_prepared(db, kind, prepared, strict, progress, chunk_rows, before_commit):
     engine = open_engine(db)
     builder = _snapshot_builder(db, kind, len(prepared))
+    before = _generation(engine, kind)
     try:
         with _cycle_collector_paused(), engine.begin() as conn:
             reports = [_import_one(conn, item, strict, progress, chunk_rows, builder)
                        for item in prepared]  # fmt: skip
             stamp = _stamp_after_bump(conn, kind)
+            if before_commit is not None:
+                before_commit(reports)
         _refresh_snapshot(db, kind, builder, stamp)
     except sa.exc.OperationalError as exc:  # locked by another writer, disk full, read-only
         raise DatabaseError(resolve_db_url(db), f"cannot be written ({exc.orig})") from None
+    except KeyboardInterrupt:
+        raise ImportInterrupted(committed=_generation(engine, kind) != before) from None
     finally:
         if builder is not None:
             builder.discard()
     return reports
+
+
+def _generation(engine: sa.Engine, kind: str) -> str | None:
+    """Return the stored generation of ``kind`` (None if it cannot be read)."""
+    try:
+        with engine.connect() as conn:
+            return conn.execute(
+                select(catalog_meta.c.value).where(catalog_meta.c.key == generation_key(kind))
+            ).scalar_one_or_none()
+    except sa.exc.SQLAlchemyError:
+        return None
+
+
+def _named_as_given(item: PreparedFile, given: str | Path) -> PreparedFile:
+    """Return ``item`` reporting the name the user gave (not a temporary copy's)."""
+    name = STDIN_NAME if str(given) == "-" else str(given)
+    return item if name == item.path else dataclasses.replace(item, display=name)
 
 
 @contextlib.contextmanager
@@ -126,7 +168,10 @@ def _cycle_collector_paused() -> Iterator[None]:
 def _snapshot_builder(db: str | None, kind: str, files: int) -> SnapshotBuilder | None:
     """Return a builder spilling a one-file import's columns, or None where none applies."""
     path = sqlite_file(resolve_db_url(db))
-    if path is None or files != 1:
+    if path is None:
+        return None
+    sweep_leftovers(snapshot_file(path, kind).parent)  # a killed import's spill files
+    if files != 1:
         return None  # several files: rebuild from the table after the commit instead
     try:
         return SnapshotBuilder(snapshot_file(path, kind), kind)
@@ -171,7 +216,7 @@ def _import_one(
     if strict and rejects:
         first = rejects[0]
         raise StrictImportError(
-            item.path,
+            item.name,
             rejected,
             f"line {first.line}, {first.column}: {first.reason}",
             rejects=tuple(rejects),
@@ -184,7 +229,7 @@ def _import_one(
                 unchanged=counts.unchanged, rejected=rejected)
     )  # fmt: skip
     return ImportReport(
-        file=item.path, kind=item.kind, sha256=item.format.sha256, batch_id=batch_id,
+        file=item.name, kind=item.kind, sha256=item.format.sha256, batch_id=batch_id,
         encoding=item.format.encoding, delimiter=item.format.delimiter, rows=written.rows,
         added=counts.added, updated=counts.updated, unchanged=counts.unchanged,
         rejected=rejected, rejects=tuple(rejects), columns=item.plan.matches,
@@ -234,7 +279,7 @@ def _write_chunks(
         written.rejects += chunk.rejects + _repeat_rejects(item, repeats)
         if progress is not None:
             progress(
-                ImportProgress(item.path, chunk.bytes_done, item.format.size_bytes, written.rows)
+                ImportProgress(item.name, chunk.bytes_done, item.format.size_bytes, written.rows)
             )
     if bulk:
         _finish_bulk_load(conn, item, batch_id, builder, written)
@@ -273,7 +318,7 @@ def _repeat_rejects(item: PreparedFile, repeats: list) -> list[Reject]:
 def _start_batch(conn: sa.Connection, item: PreparedFile, imported_at: str) -> int:
     result = conn.execute(
         import_batches.insert().values(
-            file=str(Path(item.path).resolve()), sha256=item.format.sha256,
+            file=item.display or str(Path(item.path).resolve()), sha256=item.format.sha256,
             imported_at=imported_at, kind=item.kind, rows=0, added=0, updated=0,
             unchanged=0, rejected=0,
         )

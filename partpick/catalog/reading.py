@@ -49,6 +49,12 @@ class PreparedFile:
     decimal_comma: bool
     constants: dict[str, ColumnValues]
     mpn_header: str
+    display: str = ""  # the name the user gave, when ``path`` is a temporary copy (stdin)
+
+    @property
+    def name(self) -> str:
+        """Return the file's name as the user gave it."""
+        return self.display or self.path
 
 
 @dataclass(frozen=True)
@@ -195,7 +201,7 @@ def read_chunks(item: PreparedFile, chunk_rows: int) -> Iterator[Chunk]:
         reader = _open_reader(handle, item.format, item.skip_rows, chunksize=chunk_rows)
         offset = 1  # the header row is the first row pandas returns
         with reader:
-            while (frame := _next_frame(item.path, reader, skipped)) is not None:
+            while (frame := _next_frame(item.name, reader, skipped)) is not None:
                 lines = _line_numbers(frame.index.to_numpy(), sorted(skipped), item)
                 chunk = _validate(item, frame.iloc[offset:], lines[offset:], handle.tell())
                 offset = 0

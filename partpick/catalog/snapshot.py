@@ -18,9 +18,12 @@ holding them in memory. Standard library and numpy only (no pandas).
 from __future__ import annotations
 
 import contextlib
+import fcntl
 import os
 import shutil
+import stat
 import tempfile
+import time
 import zipfile
 from collections.abc import Iterable, Iterator, Sequence
 from pathlib import Path
@@ -28,6 +31,7 @@ from pathlib import Path
 import numpy as np
 
 from partpick.fields import Field, fields_of
+from partpick.outputs import atomic_file
 
 SNAPSHOT_VERSION = "3"
 META = "__meta__"
@@ -90,19 +94,84 @@ def encode_rows(fields: Sequence[Field], rows: list[tuple]) -> dict[str, np.ndar
 
 
 def save_members(file: Path, members: Iterable[tuple[str, np.ndarray]]) -> None:
-    """Write ``members`` as an .npz (one array at a time) and rename it into place."""
-    file.parent.mkdir(parents=True, exist_ok=True)
-    handle, temp = tempfile.mkstemp(dir=file.parent, prefix=f".{file.stem}.", suffix=".tmp")
+    """Write ``members`` as an .npz (one array at a time) and rename it into place.
+
+    The snapshot takes the permission bits of the catalog file it belongs to (and its
+    folder those bits plus search rights), so whoever may read the catalog may read it.
+    """
+    mode = catalog_mode(file)
+    make_snapshot_folder(file.parent, mode)
+    with atomic_file(file, mode=mode) as out, zipfile.ZipFile(out, "w", allowZip64=True) as archive:
+        for name, array in members:
+            with archive.open(name + ".npy", "w", force_zip64=True) as member:
+                np.lib.format.write_array(member, np.asanyarray(array), allow_pickle=False)
+
+
+def catalog_mode(snapshot: Path) -> int | None:
+    """Return the permission bits of the catalog file a snapshot belongs to (None: unknown)."""
+    folder = snapshot.parent
+    catalog = folder.with_name(folder.name.removesuffix(".columns"))
     try:
-        with os.fdopen(handle, "wb") as out, zipfile.ZipFile(out, "w", allowZip64=True) as archive:
-            for name, array in members:
-                with archive.open(name + ".npy", "w", force_zip64=True) as member:
-                    np.lib.format.write_array(member, np.asanyarray(array), allow_pickle=False)
-        os.replace(temp, file)
-    except BaseException:
+        return stat.S_IMODE(os.stat(catalog).st_mode) & 0o666
+    except OSError:
+        return None
+
+
+def make_snapshot_folder(folder: Path, mode: int | None) -> None:
+    """Create the snapshot folder; with the catalog's mode, readable where the catalog is."""
+    if folder.is_dir():
+        return
+    folder.mkdir(parents=True, exist_ok=True)
+    if mode is not None:
+        readable = (mode & 0o444) >> 2  # search right wherever reading is allowed
         with contextlib.suppress(OSError):
-            os.unlink(temp)
-        raise
+            os.chmod(folder, mode | readable | 0o700)
+
+
+BUILD_PREFIX = "-build-"
+_LOCK_NAME = ".lock"
+_STALE_SECONDS = 60.0
+
+
+def sweep_leftovers(folder: Path) -> list[Path]:
+    """Remove what a killed import left in a snapshot folder; return what was removed.
+
+    A spill folder (``.inductor-build-*``) is removed when no live import holds its lock;
+    a half-written snapshot (``.inductor.*.tmp``) when it is over a minute old. Nothing is
+    removed where the folder cannot be written (a reader without write rights).
+    """
+    removed: list[Path] = []
+    if not folder.is_dir() or not os.access(folder, os.W_OK):
+        return removed
+    for entry in folder.iterdir():
+        if entry.name.startswith(".") and BUILD_PREFIX in entry.name and entry.is_dir():
+            if _spill_is_abandoned(entry):
+                shutil.rmtree(entry, ignore_errors=True)
+                removed.append(entry)
+        elif entry.name.startswith(".") and entry.name.endswith(".tmp") and _is_old(entry):
+            with contextlib.suppress(OSError):
+                entry.unlink()
+                removed.append(entry)
+    return removed
+
+
+def _spill_is_abandoned(spill: Path) -> bool:
+    lock = spill / _LOCK_NAME
+    if not lock.exists():
+        return _is_old(spill)
+    try:
+        with open(lock, "rb") as handle:
+            fcntl.flock(handle.fileno(), fcntl.LOCK_EX | fcntl.LOCK_NB)
+    except OSError:
+        return False  # a running import holds it
+    return True
+
+
+def _is_old(path: Path) -> bool:
+    try:
+        return time.time() - path.stat().st_mtime > _STALE_SECONDS
+    except OSError:
+        return False
 
 
 class SnapshotBuilder:
@@ -116,8 +185,11 @@ class SnapshotBuilder:
     def __init__(self, file: Path, kind: str) -> None:
         self.file = file
         self.fields = fields_of(kind)
-        file.parent.mkdir(parents=True, exist_ok=True)
-        self._spill = Path(tempfile.mkdtemp(dir=file.parent, prefix=f".{kind}-build-"))
+        make_snapshot_folder(file.parent, catalog_mode(file))
+        self._spill = Path(tempfile.mkdtemp(dir=file.parent, prefix=f".{kind}{BUILD_PREFIX}"))
+        # held for the builder's life, so a later import can tell this spill from a dead one
+        self._lock = open(self._spill / _LOCK_NAME, "wb")  # noqa: SIM115
+        fcntl.flock(self._lock.fileno(), fcntl.LOCK_EX)
         self.valid = True
 
     def add(self, values: dict[str, np.ndarray], count: int) -> None:
@@ -149,6 +221,7 @@ class SnapshotBuilder:
     def discard(self) -> None:
         """Remove the spill files."""
         shutil.rmtree(self._spill, ignore_errors=True)
+        self._lock.close()
 
 
 def _spill_dtype(f: Field, key: str) -> type:

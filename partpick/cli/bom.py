@@ -73,10 +73,18 @@ def bom_command(
     Example: partpick bom catalogs/scenarios/field-logger.toml --format md --output review.md
     """
     from partpick.bom import build_bom
+    from partpick.outputs import check_own_file, report_plot_path, resolve_output
     from partpick.render import bom_report
     from partpick.render.exports import write_atomically
     from partpick.screening.profiles import load_profile
 
+    plot_path = None
+    if output is not None:  # every path is checked before any work is done
+        resolve_output(output, "--output")
+        if output_format is BomFormat.md and verify:
+            plot_path = report_plot_path(output)
+            resolve_output(plot_path, "--output (its plot)")
+            check_own_file(plot_path, "--output (its plot)")
     policy = load_profile(profile)
     bom = build_bom(
         db,
@@ -88,8 +96,9 @@ def bom_command(
         verify=verify,
     )
     plot_name = None
-    if output is not None and output_format is BomFormat.md and bom.verification is not None:
-        plot_name = _write_plot(bom, output.with_suffix(".png"))
+    if plot_path is not None and bom.verification is not None:
+        plot_name = _write_plot(bom, plot_path)
+        typer.echo(f"wrote {plot_path}", err=True)
     text = _rendered(bom, output_format, plot_name, bom_report)
     if output is None:
         if output_format is BomFormat.table:
@@ -125,4 +134,7 @@ def _write_plot(bom, path: Path) -> str:
     """Write the verification plot beside the report; return its name for the Markdown link."""
     from partpick.render.plot import save_plot
 
-    return save_plot(path, bom.verification).name
+    from urllib.parse import quote
+
+    save_plot(path, bom.verification, "--output (its plot)")
+    return quote(path.name)  # a space or bracket in the name must not break the link

@@ -13,7 +13,8 @@ from typing import Annotated
 import typer
 
 from partpick.cli.common import DbOption, friendly_errors
-from partpick.errors import StrictImportError
+from partpick.errors import ImportInterrupted, StrictImportError
+from partpick.outputs import resolve_output
 from partpick.render.catalog import (
     import_progress,
     parts_csv,
@@ -56,20 +57,32 @@ def import_command(
     """Import CSV catalog files; every file of one call goes in one transaction."""
     from partpick.catalog.importer import import_catalog  # pandas and SQLAlchemy: load late
 
+    if rejects is not None:  # a bad rejects path is refused before anything is imported
+        resolve_output(rejects, "--rejects")
     console = make_console()
     total = sum(p.stat().st_size for p in files if p.is_file())
+
+    def save_rejects(reports) -> None:  # inside the transaction: a failure stores nothing
+        if rejects is not None:
+            write_rejects_csv(rejects, [r for report in reports for r in report.rejects])
+
     try:
         with import_progress(console, total) as hook:
             reports = import_catalog(
-                db, files, kind, map_file=map_file, strict=strict, progress=hook
-            )
+                db, files, kind, map_file=map_file, strict=strict, progress=hook,
+                before_commit=save_rejects,
+            )  # fmt: skip
     except StrictImportError as exc:
         if rejects is not None:
             write_rejects_csv(rejects, exc.rejects)
+            typer.echo(f"wrote {rejects}", err=True)
         raise
-    if rejects is not None:
-        write_rejects_csv(rejects, [r for report in reports for r in report.rejects])
-    render_import_reports(console, reports)
+    try:
+        render_import_reports(console, reports)
+        if rejects is not None:
+            typer.echo(f"wrote {rejects}", err=True)
+    except KeyboardInterrupt:
+        raise ImportInterrupted(committed=True) from None
 
 
 @friendly_errors

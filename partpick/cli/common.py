@@ -9,7 +9,7 @@ from typing import Annotated, Any, TypeVar
 
 import typer
 
-from partpick.errors import PartpickError
+from partpick.errors import ImportInterrupted, PartpickError
 
 F = TypeVar("F", bound=Callable[..., Any])
 
@@ -40,6 +40,9 @@ def friendly_errors(command: F) -> F:
         except PartpickError as exc:
             typer.echo(f"error: {exc}", err=True)
             raise typer.Exit(exc.exit_code) from None
+        except ImportInterrupted as exc:
+            typer.echo(f"error: {exc}", err=True)
+            raise typer.Exit(EXIT_INTERRUPTED) from None
         except KeyboardInterrupt:
             typer.echo("interrupted; nothing was changed", err=True)
             raise typer.Exit(EXIT_INTERRUPTED) from None

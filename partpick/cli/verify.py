@@ -155,6 +155,12 @@ def verify_command(
     --output-cap OPC-1210S-106M50 --output-count 3 --diode TS-ZK40-3A0B --switch TS-QN40-8Q
     --plot stage.png
     """
+    if plot is not None:  # checked before the solve, not after it
+        from partpick.outputs import resolve_output
+        from partpick.render.plot import plot_format  # matplotlib only when a plot is asked for
+
+        plot_format(plot)
+        resolve_output(plot, "--plot")
     given = {
         "--inductance": inductance,
         "--dcr": dcr,
@@ -188,12 +194,11 @@ def verify_command(
         duty=_quantity(duty, "fraction", "--duty") if duty is not None else None,
     )
     if plot is not None:
-        from partpick.render.plot import save_plot  # matplotlib only when a plot is asked for
+        from partpick.render.plot import save_plot
 
         save_plot(plot, result)
+        typer.echo(f"wrote {plot}", err=True)
     if output_format is VerifyFormat.json:
         typer.echo(json_text(result.to_dict()), nl=False)
         return
     render_verify(result, make_console())
-    if plot is not None:
-        typer.echo(f"plot written to {plot}")

@@ -18,6 +18,7 @@ from rich.progress import BarColumn, DownloadColumn, Progress, TextColumn, TimeR
 from rich.table import Table
 
 from partpick.fields import KIND_FIELDS, Field, fields_of
+from partpick.outputs import write_output
 from partpick.render.console import STYLE_FAIL, STYLE_HEADING, STYLE_MUTED, STYLE_UNVERIFIED
 from partpick.units import format_eng
 
@@ -114,12 +115,13 @@ def _render_rejects(console: Console, report: ImportReport, shown: int) -> None:
 
 
 def write_rejects_csv(path: str | Path, rejects: Sequence[Reject]) -> None:
-    """Write ``rejects`` to ``path`` with the columns line,column,value,reason."""
-    with open(path, "w", newline="", encoding="utf-8") as out:
-        writer = csv.writer(out)
-        writer.writerow(REJECT_COLUMNS)
-        for r in rejects:
-            writer.writerow([r.line, *(neutralise_cell(t) for t in (r.column, r.value, r.reason))])
+    """Write ``rejects`` to ``path`` (atomically) with the columns line,column,value,reason."""
+    buffer = io.StringIO()
+    writer = csv.writer(buffer)
+    writer.writerow(REJECT_COLUMNS)
+    for r in rejects:
+        writer.writerow([r.line, *(neutralise_cell(t) for t in (r.column, r.value, r.reason))])
+    write_output(path, buffer.getvalue(), "--rejects")
 
 
 def _plain(value: object, f: Field) -> str:

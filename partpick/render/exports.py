@@ -12,10 +12,10 @@ import csv
 import io
 import json
 import math
-import os
-import tempfile
 from collections.abc import Iterable, Mapping, Sequence
 from pathlib import Path
+
+from partpick.outputs import write_output
 
 FORMULA_LEADS = ("=", "+", "-", "@", "\t", "\r")
 
@@ -64,26 +64,14 @@ def _nan_to_none(value: object) -> object:
     return value
 
 
-def write_atomically(path: str | Path, text: str | bytes) -> Path:
-    """Write ``text`` to ``path`` through a temporary file in the same folder, then rename.
+def write_atomically(path: str | Path, text: str | bytes, option: str = "--output") -> Path:
+    """Write ``text`` to ``path`` under the output policy of :mod:`partpick.outputs`.
 
-    An existing file is either replaced whole or left as it was; never half-written.
-    Returns the path written.
+    The path is checked first (regular file or nothing, writable folder), a symlink is
+    written through, the bytes land through a temporary file and a rename, and an existing
+    file keeps its mode. Returns the file written.
     """
-    target = Path(path)
-    target.parent.mkdir(parents=True, exist_ok=True)
-    data = text.encode("utf-8") if isinstance(text, str) else text
-    fd, tmp_name = tempfile.mkstemp(prefix=f".{target.name}.", suffix=".tmp", dir=target.parent)
-    try:
-        with os.fdopen(fd, "wb") as handle:
-            handle.write(data)
-            handle.flush()
-            os.fsync(handle.fileno())
-        os.replace(tmp_name, target)
-    except BaseException:
-        Path(tmp_name).unlink(missing_ok=True)
-        raise
-    return target
+    return write_output(path, text, option)
 
 
 def markdown_table(header: Sequence[str], rows: Iterable[Sequence[object]]) -> str:

@@ -17,6 +17,7 @@ matplotlib.use("Agg")  # before pyplot: render off-screen, never open a window
 import matplotlib.pyplot as plt  # noqa: E402
 
 from partpick.errors import ParameterError  # noqa: E402
+from partpick.outputs import PLOT_MARK  # noqa: E402
 from partpick.render.exports import write_atomically  # noqa: E402
 from partpick.verify.sweep import VerifyResult, efficiency_curves, waveforms  # noqa: E402
 
@@ -53,14 +54,18 @@ def plot_bytes(result: VerifyResult, file_format: str = "png") -> bytes:
         for axis in (ax_il, ax_vo, ax_eff):
             axis.grid(True, alpha=0.3)
         buffer = io.BytesIO()
-        # metadata without dates keeps an SVG byte-identical between runs
-        metadata = {"Date": None} if file_format == "svg" else {}
+        # metadata without dates keeps an SVG byte-identical between runs; the maker's mark
+        # lets a later run tell its own plot from someone else's file of the same name
+        if file_format == "svg":
+            metadata = {"Date": None, "Creator": PLOT_MARK}
+        else:
+            metadata = {"Software": PLOT_MARK}
         figure.savefig(buffer, format=file_format, dpi=_DPI, metadata=metadata)
         return buffer.getvalue()
     finally:
         plt.close(figure)
 
 
-def save_plot(path: str | Path, result: VerifyResult) -> Path:
+def save_plot(path: str | Path, result: VerifyResult, option: str = "--plot") -> Path:
     """Write the figure of ``result`` to ``path`` (.png or .svg) atomically; return the path."""
-    return write_atomically(path, plot_bytes(result, plot_format(path)))
+    return write_atomically(path, plot_bytes(result, plot_format(path)), option)
