@@ -132,9 +132,9 @@ def _rendered(bom, output_format: BomFormat, plot_name: str | None, report) -> s
 
 def _write_plot(bom, path: Path) -> str:
     """Write the verification plot beside the report; return its name for the Markdown link."""
-    from partpick.render.plot import save_plot
-
     from urllib.parse import quote
+
+    from partpick.render.plot import save_plot
 
     save_plot(path, bom.verification, "--output (its plot)")
     return quote(path.name)  # a space or bracket in the name must not break the link
