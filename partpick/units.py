@@ -23,6 +23,7 @@ from __future__ import annotations
 
 import math
 import re
+from decimal import Decimal
 from functools import lru_cache
 
 from partpick.errors import UnitError
@@ -187,7 +188,7 @@ def parse_quantity(
     Raises :class:`UnitError` for text that is not a value of that dimension.
     """
     if isinstance(text, (int, float)) and not isinstance(text, bool):
-        return float(text) * scale
+        return scaled_exactly(repr(float(text)), scale)
     if is_missing(text):
         return math.nan
     return _parse_text(str(text), unit, scale, decimal_comma)
@@ -215,13 +216,12 @@ def _parse_single(raw: str, text: str, unit: str, scale: float, decimal_comma: b
     match = _NUMBER_RE.match(text)
     if match is None:
         raise UnitError(raw, unit, "not a number")
-    number = float(match.group(1))
     rest = match.group(2).strip()
     if not rest:
-        return _check_bare(raw, number * scale, unit)
+        return _check_bare(raw, scaled_exactly(match.group(1), scale), unit)
     factor = _suffix_factor(rest, unit)
     if factor is not None:
-        return number * factor
+        return scaled_exactly(match.group(1), factor)
     other = _other_dimension(rest, unit)
     if other is not None:
         raise UnitError(raw, unit, f"{rest!r} is a unit of {dimension_name(other)}")
@@ -249,7 +249,7 @@ def _parse_iec(raw: str, text: str, unit: str) -> float | None:
     match = _IEC_RE.match(text)
     if lead is not None and unit == "ohm":
         digits, rest = lead.groups()
-        value = float(f"0.{digits}")
+        value = float(f"0.{digits}")  # an ohm letter code has no prefix to scale by
     elif match is not None:
         whole, letter, frac, rest = match.groups()
         if letter == "R":
@@ -260,13 +260,32 @@ def _parse_iec(raw: str, text: str, unit: str) -> float | None:
             factor = PREFIXES[letter]
             if unit in _NO_PREFIX:
                 return None
-        value = float(f"{whole}.{frac}") * factor
+        value = scaled_exactly(f"{whole}.{frac}", factor)
     else:
         return None
     rest = rest.strip()
     if rest and _suffix_factor(rest, unit) != 1.0 and rest.lower() not in UNIT_WORDS.get(unit, {}):
         raise UnitError(raw, unit, f"unit {rest!r} after a letter code")
     return value
+
+
+def scaled_exactly(number_text: str, factor: float) -> float:
+    """Return the decimal ``number_text`` times ``factor``, rounded once to the nearest float.
+
+    ``float("10") * 1e-6`` rounds twice and gives 9.999999999999999e-06; the product taken in
+    decimal and rounded once gives 1e-05, the number a person wrote as "10 uH".
+    """
+    if factor == 1.0:
+        return float(number_text)
+    if not math.isfinite(factor) or factor == 0.0:
+        return float(number_text) * factor
+    return float(Decimal(number_text) * _decimal(factor))
+
+
+@lru_cache(maxsize=256)
+def _decimal(factor: float) -> Decimal:
+    """Return a scale factor as the decimal it was written as (``1e-06`` → ``0.000001``)."""
+    return Decimal(repr(factor))
 
 
 def _check_bare(raw: str, value: float, unit: str) -> float:

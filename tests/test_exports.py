@@ -69,3 +69,35 @@ def test_atomic_write_leaves_the_old_file_when_it_fails(tmp_path, monkeypatch):
 def test_markdown_table_escapes_pipes():
     text = exports.markdown_table(["a", "b"], [["x|y", 1]])
     assert text.splitlines() == ["| a | b |", "|---|---|", "| x\\|y | 1 |"]
+
+
+# 0.1 + 0.2 is 0.30000000000000004 in IEEE 754 binary64 (the classic example of float noise,
+# Goldberg, "What Every Computer Scientist Should Know About Floating-Point Arithmetic", 1991);
+# 5.48 summed from 1.42 + 3 × 0.2 + … reaches 5.4799999999999995 the same way.
+@pytest.mark.parametrize(
+    ("value", "written"),
+    [(0.1 + 0.2, "0.3"), (5.4799999999999995, "5.48"), (9.999999999999999e-06, "1e-05"),
+     (1 / 3, "0.333333333333"), (123456789012345.0, "123456789012000.0")],
+)  # fmt: skip
+def test_csv_and_json_numbers_carry_at_most_twelve_significant_digits(value, written):
+    assert exports.csv_text(["x"], [[value]]).splitlines()[1] == written
+    assert json.loads(exports.json_text({"x": value}))["x"] == float(written)
+    assert f'"x": {written}' in exports.json_text({"x": value})
+
+
+def _significant_digits(value: float) -> int:
+    mantissa = repr(value).lower().split("e")[0].replace("-", "").replace(".", "")
+    return len(mantissa.strip("0"))
+
+
+def test_the_vectorised_rounding_leaves_no_float_noise_at_any_magnitude():
+    # Same IEEE 754 property as above: the 12-digit decimal's nearest float has a repr of at
+    # most 12 significant digits; from 1e-15 to 1e15, through the exact and fallback paths.
+    import numpy as np
+
+    rng = np.random.default_rng(3)
+    values = rng.uniform(1, 10, 4000) * 10.0 ** rng.integers(-15, 15, 4000)
+    tidied = exports.tidy_array(np.concatenate([values, [0.1 + 0.2, 0.0, -5.4799999999999995]]))
+    assert max(_significant_digits(v) for v in tidied.tolist()) <= 12
+    assert np.allclose(tidied[:4000], values, rtol=1e-11)
+    assert tidied[-3:].tolist() == [0.3, 0.0, -5.48]

@@ -234,3 +234,40 @@ def test_pint_refuses_trade_spellings_partpick_reads(text, unit, expected):
     with pytest.raises(pint.errors.UndefinedUnitError):
         _UREG.Quantity(text)
     assert parse_quantity(text, unit) == pytest.approx(expected, rel=REL)
+
+
+# Python's float() of a decimal string is correctly rounded (IEEE 754-2019 §5.12.2: conversion
+# from decimal character sequences rounds once, to nearest). So float("1e-05") is the float
+# nearest to 10 µH, and a parsed "10 uH" must be that very float, not 9.999999999999999e-06.
+@pytest.mark.parametrize(
+    ("text", "unit", "exact"),
+    [
+        ("10 uH", "H", "1e-05"),
+        ("4.7 uH", "H", "4.7e-06"),
+        ("4u7", "H", "4.7e-06"),
+        ("2n2", "F", "2.2e-09"),
+        ("33 mOhm", "ohm", "0.033"),
+        ("0.1 uF", "F", "1e-07"),
+        ("680 pF", "F", "6.8e-10"),
+        ("1.5 kHz", "Hz", "1500"),
+    ],
+)
+def test_a_written_value_parses_to_the_nearest_float(text, unit, exact):
+    assert parse_quantity(text, unit) == float(exact)
+
+
+def test_every_three_digit_value_at_every_prefix_parses_to_the_nearest_float():
+    # Every three-digit mantissa (so every E96/E192-style value of IEC 60063) with every SI
+    # prefix; the nearest float is float() of the same value in exponent form (IEEE 754-2019
+    # §5.12.2). Multiplying float("4.7") by 1e-6 misses it for about a third of them.
+    for digits in range(100, 1000):
+        for prefix, exponent in [("p", -12), ("n", -9), ("u", -6), ("m", -3), ("k", 3)]:
+            text = f"{digits / 100:.2f} {prefix}F"
+            assert parse_quantity(text, "F") == float(f"{digits}e{exponent - 2}"), text
+
+
+def test_a_header_unit_scales_bare_numbers_without_float_noise():
+    # "10" in a column headed "L [µH]" is 10 µH, exactly the float nearest 1e-05
+    # (IEEE 754-2019 §5.12.2).
+    assert parse_quantity("10", "H", scale=1e-6) == 1e-05
+    assert parse_quantity(10, "H", scale=1e-6) == 1e-05

@@ -18,7 +18,13 @@ import pandas as pd
 
 from partpick.errors import UnitError
 from partpick.fields import Field, fold_text
-from partpick.units import MISSING_MARKERS, dimension_name, is_missing, parse_quantity
+from partpick.units import (
+    MISSING_MARKERS,
+    dimension_name,
+    is_missing,
+    parse_quantity,
+    scaled_exactly,
+)
 
 # Words that answer a yes/no field such as ``shielded``; folded with fold_text.
 # "semi-shielded" is not fully shielded, so a filter asking for shielded parts must not pass it.
@@ -106,7 +112,10 @@ def _simple_numbers(
             continue  # parse the whole text, for its exact reason
         factors[suffixes == suffix] = factor
     simple = ~np.isnan(numbers) & ~np.isnan(factors)
-    return np.where(simple, numbers * factors, math.nan), simple
+    values = np.where(simple, numbers, math.nan)
+    for i in np.flatnonzero(simple & (factors != 1.0)):  # one rounding, as parse_quantity does
+        values[i] = scaled_exactly(matches[i][1], factors[i])
+    return values, simple
 
 
 def _check_ranges(parsed: np.ndarray, reasons: list, f: Field) -> tuple[np.ndarray, list]:

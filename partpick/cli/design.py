@@ -2,7 +2,6 @@
 
 from __future__ import annotations
 
-import json
 from enum import StrEnum
 from typing import Annotated
 
@@ -13,6 +12,7 @@ from partpick.cli.spec_options import with_spec_options
 from partpick.design.spec import Spec
 from partpick.design.topologies import analyse
 from partpick.render.console import make_console
+from partpick.render.exports import json_text
 from partpick.render.stress import render_stress
 
 
@@ -43,6 +43,6 @@ def stress_command(spec: Spec, output_format: FormatOption = StressFormat.table)
     """
     envelope = analyse(spec)
     if output_format is StressFormat.json:
-        typer.echo(json.dumps(envelope.to_dict(), indent=2, ensure_ascii=False))
+        typer.echo(json_text(envelope.to_dict()), nl=False)
         return
     render_stress(envelope, make_console())

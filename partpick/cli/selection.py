@@ -7,7 +7,6 @@ catalog.
 
 from __future__ import annotations
 
-import json
 import sys
 from enum import StrEnum
 from typing import Annotated
@@ -131,9 +130,10 @@ def _write_stream(ranked, output_format: PickFormat, messages: bool) -> None:
 
 
 def _show_explanation(found, output_format: PickFormat, make_console) -> None:
+    from partpick.render.exports import json_text
     from partpick.render.pick import explain_json, render_explain
 
     if output_format is not PickFormat.table:
-        typer.echo(json.dumps(explain_json(found), indent=2, ensure_ascii=False))
+        typer.echo(json_text(explain_json(found)), nl=False)
     else:
         render_explain(found, make_console())

@@ -4,7 +4,6 @@ from __future__ import annotations
 
 import csv
 import io
-import json
 import math
 from collections.abc import Callable, Iterator, Sequence
 from contextlib import contextmanager
@@ -20,6 +19,7 @@ from rich.table import Table
 from partpick.fields import KIND_FIELDS, Field, fields_of
 from partpick.outputs import write_output
 from partpick.render.console import STYLE_FAIL, STYLE_HEADING, STYLE_MUTED, STYLE_UNVERIFIED
+from partpick.render.exports import json_text, tidy_number
 from partpick.units import format_eng
 
 if TYPE_CHECKING:  # the catalog core pulls in pandas and SQLAlchemy; only commands need them
@@ -131,7 +131,7 @@ def _plain(value: object, f: Field) -> str:
     if isinstance(value, bool):
         return "yes" if value else "no"
     if isinstance(value, int | float):
-        return repr(value) if f.type == "float" else str(value)
+        return repr(tidy_number(float(value))) if f.type == "float" else str(value)
     return neutralise_cell(str(value))
 
 
@@ -147,12 +147,8 @@ def parts_csv(kind: str, parts: Sequence[dict[str, object]]) -> str:
 
 
 def parts_json(parts: Sequence[dict[str, object]]) -> str:
-    """Return the parts as a JSON array; NaN becomes null."""
-    cleaned = [
-        {k: (None if isinstance(v, float) and math.isnan(v) else v) for k, v in part.items()}
-        for part in parts
-    ]
-    return json.dumps(cleaned, indent=2, ensure_ascii=False, allow_nan=False)
+    """Return the parts as a JSON array; NaN becomes null, floats have ≤ 12 significant digits."""
+    return json_text(list(parts)).rstrip("\n")
 
 
 def _cell(value: object, f: Field) -> str:

@@ -21,6 +21,7 @@ from typing import BinaryIO
 import numpy as np
 import orjson
 
+from partpick.render.exports import tidy_array
 from partpick.render.pick import check_sentence, operating_point_json, profile_json
 from partpick.screening.checks import FAIL, SKIPPED, UNVERIFIED
 from partpick.screening.pick import STATUS_NAMES, RankedRole
@@ -99,7 +100,7 @@ class _Slice:
         for rule in self.screen.rules:
             rows = np.flatnonzero(wanted(rule.status[self.indices]))
             at = self.indices[rows]
-            figures = [getattr(rule, key)[at].tolist() for key in _RULE_FIGURES]
+            figures = [tidy_array(getattr(rule, key)[at]).tolist() for key in _RULE_FIGURES]
             entries = [
                 {"rule": rule.rule, "stress": s, "limit": lim, "utilisation": u, "worst_vin_v": w}
                 for s, lim, u, w in zip(*figures, strict=True)
@@ -125,8 +126,8 @@ class _Slice:
 
     def entries(self, with_missing: bool) -> list[dict[str, object]]:
         screen, at = self.screen, self.indices
-        loss = screen.loss_w[at].tolist()
-        price = screen.columns["unit_price"][at].tolist()
+        loss = tidy_array(screen.loss_w[at]).tolist()
+        price = tidy_array(screen.columns["unit_price"][at]).tolist()
         notes = [(text, mask[at].tolist()) for text, mask in screen.notes]
         checks = self.checks(lambda status: status != SKIPPED)
         missing = self.missing() if with_missing else None
