@@ -86,18 +86,19 @@ def json_text(document: object) -> str:
 
     Floats are written with at most 12 significant digits (:func:`tidy_number`).
     """
-    return json.dumps(_nan_to_none(document), indent=2, ensure_ascii=False, allow_nan=False) + "\n"
+    return json.dumps(tidy_document(document), indent=2, ensure_ascii=False, allow_nan=False) + "\n"
 
 
-def _nan_to_none(value: object) -> object:
+def tidy_document(value: object) -> object:
+    """Return a JSON-ready copy of ``value``: NaN and infinity as None, floats tidied."""
     if isinstance(value, float):
         return tidy_number(value) if math.isfinite(value) else None
     if isinstance(value, Mapping):
-        return {str(k): _nan_to_none(v) for k, v in value.items()}
+        return {str(k): tidy_document(v) for k, v in value.items()}
     if isinstance(value, (list, tuple)):
-        return [_nan_to_none(v) for v in value]
+        return [tidy_document(v) for v in value]
     if hasattr(value, "item") and callable(value.item):  # numpy scalars
-        return _nan_to_none(value.item())
+        return tidy_document(value.item())
     return value
 
 

@@ -21,7 +21,7 @@ from typing import BinaryIO
 import numpy as np
 import orjson
 
-from partpick.render.exports import tidy_array
+from partpick.render.exports import tidy_array, tidy_document
 from partpick.render.pick import check_sentence, operating_point_json, profile_json
 from partpick.screening.checks import FAIL, SKIPPED, UNVERIFIED
 from partpick.screening.pick import STATUS_NAMES, RankedRole
@@ -32,7 +32,7 @@ _RULE_FIGURES = ("stress", "limit", "utilisation", "worst_vin_v")
 
 def write_pick_json(ranked: RankedRole, out: BinaryIO, *, messages: bool = False) -> None:
     """Write the ``partpick pick --format json`` object to the binary stream ``out``."""
-    head = orjson.dumps(pick_head(ranked), option=orjson.OPT_INDENT_2)
+    head = orjson.dumps(tidy_document(pick_head(ranked)), option=orjson.OPT_INDENT_2)
     out.write(head[:-2] + b",\n")  # reopen the object after its last field
     for position, name in enumerate(STATUS_NAMES):
         out.write(b'  "' + name.encode() + b'": [')
