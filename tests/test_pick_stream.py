@@ -14,6 +14,7 @@ from partpick.catalog.importer import import_catalog
 from partpick.cli import app
 from partpick.design.spec import load_spec
 from partpick.render import pick_stream
+from partpick.render.exports import tidy_number
 from partpick.screening.pick import pick, rank_role
 from partpick.screening.profiles import load_profile
 
@@ -40,7 +41,8 @@ def _refuse(constant: str):
 
 
 def _number(value):
-    return None if value is None or not math.isfinite(value) else value
+    """The figure as the JSON writers print it: 12 significant digits, NaN as null."""
+    return None if value is None or not math.isfinite(value) else tidy_number(value)
 
 
 @pytest.mark.parametrize("role", ["inductor", "output-cap"])
