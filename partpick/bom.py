@@ -18,7 +18,6 @@ from partpick.design.cautions import stored_energy_j
 from partpick.design.spec import Spec
 from partpick.design.topologies import get_topology
 from partpick.design.topologies.base import Caution, Envelope
-from partpick.screening.capacitor import effective_capacitance_f
 from partpick.screening.checks import Outcome
 from partpick.screening.diode import diode_loss_w
 from partpick.screening.pick import ROLES, PickResult, pick
@@ -342,30 +341,23 @@ def stage_ripple(
         inductance_min_h=l_min_part_h,
         il_ripple_nominal_a=float(stress.il_ripple_a[0]),
         il_ripple_min_l_a=float(stress.il_ripple_a[1]),
-        vout_ripple_v=_output_ripple_v(spec, envelope, by_role["output-cap"], stress, profile),
+        vout_ripple_v=_output_ripple_v(spec, envelope, by_role["output-cap"], stress),
         output_count=by_role["output-cap"].qty,
         ccm_full_load=topology.ccm_at(spec, l_min_part_h),
     )
 
 
-def _output_ripple_v(spec, envelope, line, stress, profile) -> float | None:
+def _output_ripple_v(spec, envelope, line, stress) -> float | None:
+    """Return the output ripple of the chosen bank, with each part's C_eff at Vout."""
     if line.choice is None:
         return None
     count = max(line.qty, 1)
-    part = line.choice.part
-    c_eff_f = float(
-        effective_capacitance_f(
-            _part_value(line, "capacitance_f"),
-            _part_value(line, "tolerance"),
-            profile.kept_fraction(part.get("dielectric")),  # type: ignore[arg-type]
-            profile.value("capacitor.tolerance_default"),
-        )
-    )
+    c_eff_f = _part_value(line, "capacitance_eff_f")  # DC bias at Vout, from the screening
     esr_ohm = _part_value(line, "esr_ohm")
     if not np.isfinite(c_eff_f) or not np.isfinite(esr_ohm):
         return None
     charge_v = spec.iout_a * envelope.value("duty_max") / (spec.fsw_hz * count * c_eff_f)
-    return float(charge_v + esr_ohm / count * stress.il_peak_a[0])
+    return float(charge_v + esr_ohm / count * stress.il_peak_a[1])  # at the part's minimum L
 
 
 def verify_chosen_set(

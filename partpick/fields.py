@@ -457,6 +457,27 @@ KIND_FIELDS: dict[str, tuple[Field, ...]] = {
             ),
         ),
         Field(
+            "capacitance_at_bias_f",
+            "float",
+            "F",
+            "capacitance at the DC bias voltage bias_v, from the datasheet's DC-bias curve",
+            positive=True,
+            synonyms=(
+                "Capacitance at Bias",
+                "Capacitance at DC Bias",
+                "Capacitance @ DC Bias",
+                "DC Bias Capacitance",
+            ),
+        ),
+        Field(
+            "bias_v",
+            "float",
+            "V",
+            "DC bias voltage of capacitance_at_bias_f",
+            positive=True,
+            synonyms=("Bias Voltage", "DC Bias Voltage"),
+        ),
+        Field(
             "temp_max_degc",
             "float",
             "degC",

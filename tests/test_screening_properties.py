@@ -65,6 +65,9 @@ ENUMS = {
     "diode_type": (None, "schottky", "fast", "standard", "sic"),
     "channel": (None, "n", "p"),
 }
+# a datasheet DC-bias point ties C to an absolute voltage, not to the rating: its own
+# properties are in tests/test_dc_bias.py, so these draws leave it out
+NOT_DRAWN = ("capacitance_at_bias_f", "bias_v")
 # ratings: lower is worse. loss-raising part figures: higher is worse.
 RATINGS = {
     "inductor": ("isat_a", "irms_a", "srf_hz"),
@@ -94,7 +97,9 @@ def catalogs(draw, role: str):
         "width_mm": np.full(n, 5.0),
     }
     for name in ROLE_RULES[role].fields:
-        if name in ENUMS:
+        if name in NOT_DRAWN:
+            columns[name] = np.full(n, np.nan)
+        elif name in ENUMS:
             values = draw(st.lists(st.sampled_from(ENUMS[name]), min_size=n, max_size=n))
             columns[name] = np.array(values, dtype=object)
         else:

@@ -39,6 +39,7 @@ def parts(**changes: dict) -> dict[str, dict[str, object]]:
             "capacitance_f": 10e-6,
             "tolerance": 0.1,
             "dielectric": "x7r",
+            "voltage_v": 50.0,
             "esr_ohm": 0.004,
         },
         "diode": {"mpn": "SLV-ZK40-3A0", "diode_type": "schottky", "vf_v": 0.47, "qrr_c": None},
@@ -55,25 +56,34 @@ def build(chosen=None, **kwargs):
 
 
 @pytest.mark.parametrize(
-    ("capacitance_f", "tolerance", "dielectric", "expected_f"),
+    ("capacitance_f", "tolerance", "dielectric", "rated_v", "expected_f"),
     [
-        # issue 4 standard profile (common practice, from memory): C × (1 − tol) × kept
-        (10e-6, 0.1, "x7r", 10e-6 * 0.9 * 0.6),  # 5.4 µF
-        (10e-6, None, "x5r", 10e-6 * 0.8 * 0.6),  # missing tolerance taken as 0.2: 4.8 µF
-        (1e-6, 0.2, "y5v", 1e-6 * 0.8 * 0.3),  # 0.24 µF
-        (47e-6, 0.2, "al-polymer", 47e-6 * 0.8),  # keeps all: 37.6 µF
-        (100e-9, 0.05, "c0g", 95e-9),
+        # C × (1 − tol) × k_bias(24 V / V_rated), k_bias linear between the standard
+        # profile's DC-bias points (from memory): x7r 25 % 0.78, 50 % 0.50; x5r 25 % 0.70,
+        # 50 % 0.42; y5v 80 % 0.15, 100 % 0.12
+        (10e-6, 0.1, "x7r", 50.0, 10e-6 * 0.9 * (0.78 - 0.28 * 23 / 25)),  # 48 %: 4.70 µF
+        (10e-6, None, "x5r", 100.0, 10e-6 * 0.8 * (0.88 - 0.18 * 14 / 15)),  # 24 %, tol 0.2
+        (1e-6, 0.2, "y5v", 25.0, 1e-6 * 0.8 * (0.15 - 0.03 * 16 / 20)),  # 96 %
+        (47e-6, 0.2, "al-polymer", 35.0, 47e-6 * 0.8),  # keeps all: 37.6 µF
+        (100e-9, 0.05, "c0g", 50.0, 95e-9),
     ],
 )
-def test_effective_capacitance(capacitance_f, tolerance, dielectric, expected_f):
-    assert effective_capacitance_f(capacitance_f, tolerance, dielectric) == pytest.approx(
-        expected_f
-    )
+def test_effective_capacitance(capacitance_f, tolerance, dielectric, rated_v, expected_f):
+    part = {"voltage_v": rated_v}
+    got = effective_capacitance_f(capacitance_f, tolerance, dielectric, working_v=24.0, part=part)
+    assert got == pytest.approx(expected_f)
     # the standard profile file holds the same figures
     profile = load_profile("standard")
-    assert effective_capacitance_f(capacitance_f, tolerance, dielectric, profile) == pytest.approx(
-        expected_f
+    got = effective_capacitance_f(
+        capacitance_f, tolerance, dielectric, profile, working_v=24.0, part=part
     )
+    assert got == pytest.approx(expected_f)
+
+
+def test_effective_capacitance_without_a_working_voltage_takes_the_rating():
+    # the standard x7r table's point at 100 % of the rating is 0.26 (from memory)
+    got = effective_capacitance_f(10e-6, 0.1, "x7r", part={"voltage_v": 50.0})
+    assert got == pytest.approx(10e-6 * 0.9 * 0.26)
 
 
 def test_stage_takes_every_figure_from_the_parts():
@@ -82,7 +92,9 @@ def test_stage_takes_every_figure_from_the_parts():
     assert stage.dcr_ohm == 0.018
     assert stage.rds_on_ohm == 0.007 and stage.hot_factor == 1.5
     assert stage.rds_on_hot_ohm == pytest.approx(0.0105)  # 7 mΩ × 1.5
-    assert stage.cout_f == pytest.approx(5.4e-6) and stage.output_count == 3
+    # 10 µF ±10 % X7R 50 V at Vout = 24 V (48 % of its rating): the standard DC-bias table
+    # (from memory) keeps 0.78 − 0.28·23/25 = 0.5224, so 10·0.9·0.5224 = 4.70 µF
+    assert stage.cout_f == pytest.approx(10e-6 * 0.9 * 0.5224) and stage.output_count == 3
     assert stage.fsw_hz == 400e3 and stage.gate_drive_a == 1.0
     # a Schottky has no stored charge: a missing Qrr is 0, with a note saying so
     assert stage.qrr_c == 0.0
@@ -95,8 +107,8 @@ def test_stage_takes_every_figure_from_the_parts():
         ("inductor", "dcr_ohm", "--dcr", "dcr_ohm", 0.045, 0.045),
         ("inductor", "inductance_h", "--inductance", "inductance_h", 10e-6, 10e-6),
         ("output_cap", "esr_ohm", "--esr", "esr_ohm", 0.01, 0.01),
-        # 22 µF X7R at 10 %: 22·0.9·0.6 = 11.88 µF effective (issue 4, common practice)
-        ("output_cap", "capacitance_f", "--capacitance", "cout_f", 22e-6, 11.88e-6),
+        # 22 µF ±10 % X7R 50 V at 24 V: 22·0.9·0.5224 = 10.34 µF (DC-bias table, from memory)
+        ("output_cap", "capacitance_f", "--capacitance", "cout_f", 22e-6, 22e-6 * 0.9 * 0.5224),
         ("diode", "vf_v", "--vf", "diode_vf_v", 0.5, 0.5),
         ("switch", "rds_on_ohm", "--rds-on", "rds_on_ohm", 0.02, 0.02),
         ("switch", "qgd_c", "--qgd", "qgd_c", 3e-9, 3e-9),

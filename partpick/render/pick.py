@@ -47,18 +47,25 @@ ROLE_BASIS: dict[str, str] = {
     "inductor": "Peak and RMS currents are computed at each part's own minimum inductance "
     "L·(1 − tolerance), the worst over the input range.",
     "output-cap": "Each part is counted n times in parallel, the smallest n that meets ripple "
-    "voltage and current; capacitance is derated to C·(1 − tolerance)·kept fraction.",
+    "voltage and current; capacitance is derated to C·(1 − tolerance)·(DC-bias share at Vout)"
+    "·kept fraction.",
     "input-cap": "Each part is counted n times in parallel, the smallest n that meets the ripple "
-    "checks; capacitance is derated to C·(1 − tolerance)·kept fraction.",
+    "checks; capacitance is derated to C·(1 − tolerance)·(DC-bias share at vin_max)·kept "
+    "fraction.",
 }
 # the part figures, derived by the rules, that --explain shows
 DERIVED: tuple[tuple[str, str, str], ...] = (
     ("inductance_min_h", "minimum inductance used", "H"),
     ("il_peak_a", "peak current at that inductance", "A"),
-    ("capacitance_eff_f", "effective capacitance per part", "F"),
+    ("capacitance_eff_f", "effective capacitance per part (C_eff)", "F"),
+    ("working_voltage_v", "DC working voltage", "V"),
+    ("working_fraction_of_rating", "working voltage as a share of its rating", "fraction"),
+    ("dc_bias_kept", "capacitance kept under that DC bias", "fraction"),
+    ("kept_fraction_further", "further share kept (profile)", "fraction"),
     ("voltage_use", "voltage use allowed for its dielectric", "fraction"),
 )
 DIELECTRIC_TABLES = ("capacitor.voltage_use", "capacitor.kept_fraction")
+DC_BIAS_HEAD = "capacitor.dc_bias."
 STATUS_STYLES = {"pass": STYLE_PASS, "fail": STYLE_FAIL, "unverified": STYLE_UNVERIFIED}
 
 
@@ -263,6 +270,11 @@ def explain_json(explanation) -> dict[str, object]:
             for c in o.checks
         ],
         "operating_point": operating_point_json(explanation.operating_point),
+        "derived": {
+            key: _json_number(o.part[key])
+            for key, _label, _unit in DERIVED
+            if isinstance(o.part.get(key), float)
+        },
     }
 
 
@@ -329,8 +341,13 @@ def profile_table(profile, role: str) -> Table:
     table.add_column("figure", no_wrap=True)
     table.add_column("value")
     grouped: dict[str, dict[float, list[str]]] = {}
+    curves: dict[str, list[tuple[int, float]]] = {}
     for key, value in sorted(profile.figures.items()):
         if key.split(".")[0] not in ROLE_SECTIONS.get(role, ()):
+            continue
+        if key.startswith(DC_BIAS_HEAD):
+            code, _, percent = key[len(DC_BIAS_HEAD) :].partition(".")
+            curves.setdefault(code, []).append((int(percent), value))
             continue
         head, _, code = key.rpartition(".")
         if head in DIELECTRIC_TABLES:
@@ -342,6 +359,12 @@ def profile_table(profile, role: str) -> Table:
         parts = [f"{_pct(v)}: {', '.join(codes)}" for v, codes in sorted(by_value.items())]
         note = "; others 100 %" if head.endswith("kept_fraction") else ""
         table.add_row(head, "; ".join(parts) + note)
+    by_curve: dict[str, list[str]] = {}
+    for code, points in curves.items():
+        shown = ", ".join(f"{p} % → {_pct(v)}" for p, v in sorted(points))
+        by_curve.setdefault(shown, []).append(code)
+    for shown, codes in by_curve.items():
+        table.add_row(f"{DC_BIAS_HEAD[:-1]} ({', '.join(codes)})", f"of rating → kept: {shown}")
     return table
 
 

@@ -28,6 +28,8 @@ from partpick.screening.pick import STATUS_NAMES, RankedRole
 
 SLICE = 4096  # parts converted and written at a time: large enough to amortise numpy calls
 _RULE_FIGURES = ("stress", "limit", "utilisation", "worst_vin_v")
+# JSON key -> screening column, for the kinds whose rules derive a figure per part
+_DERIVED_JSON = (("c_eff_f", "capacitance_eff_f"), ("dc_bias_kept", "dc_bias_kept"))
 
 
 def write_pick_json(ranked: RankedRole, out: BinaryIO, *, messages: bool = False) -> None:
@@ -131,6 +133,7 @@ class _Slice:
         notes = [(text, mask[at].tolist()) for text, mask in screen.notes]
         checks = self.checks(lambda status: status != SKIPPED)
         missing = self.missing() if with_missing else None
+        derived = self.derived()
         out = []
         for j in range(at.size):
             entry = {
@@ -144,12 +147,30 @@ class _Slice:
             }
             if missing is not None:
                 entry["missing"] = missing[j]
+            entry.update({key: values[j] for key, values in derived.items()})
             out.append(entry)
         return out
 
+    def derived(self) -> dict[str, list]:
+        """Return the per-part figures a capacitor's checks used (C_eff and its DC-bias share)."""
+        columns = self.screen.columns
+        return {
+            key: columns[column][self.indices].tolist()
+            for key, column in _DERIVED_JSON
+            if column in columns
+        }
+
     def failed_entries(self) -> list[dict[str, object]]:
         reasons = self.checks(lambda status: status == FAIL)
+        derived = self.derived()
         return [
-            {"mpn": mpn, "manufacturer": manufacturer or "", "reasons": failing}
-            for mpn, manufacturer, failing in zip(self.mpn, self.manufacturer, reasons, strict=True)
+            {
+                "mpn": mpn,
+                "manufacturer": manufacturer or "",
+                "reasons": failing,
+                **{key: values[j] for key, values in derived.items()},
+            }
+            for j, (mpn, manufacturer, failing) in enumerate(
+                zip(self.mpn, self.manufacturer, reasons, strict=True)
+            )
         ]

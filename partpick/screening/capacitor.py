@@ -20,8 +20,10 @@ Input capacitor:
   Erickson & Maksimovic, *Fundamentals of Power Electronics*, 3rd ed., ch. 2 (Δv = ΔI/(8fC)).
 
 Both: ``temperature`` (only when temp_max_degc is given): ambient + margin ≤ T_max;
-``lifecycle``. C_eff = C·(1 − tol)·kept fraction (DC-bias and ageing loss of class II
-ceramics; common practice, from memory). Loss (ranking): I_rms²·ESR/n
+``lifecycle``. C_eff = C·(1 − tol)·k_bias(V_work/V_rated)·kept fraction: k_bias is the DC-bias
+share kept at the working voltage (Vout for the output, vin_max for the input capacitor), from
+the profile's table or the part's datasheet point (:mod:`partpick.screening.dc_bias`); the kept
+fraction is any further share the profile takes off (ageing). Loss (ranking): I_rms²·ESR/n
 (:func:`partpick.losses.capacitor_esr_loss_w`).
 """
 
@@ -42,6 +44,7 @@ from partpick.screening.checks import (
     operating_point,
     use_rule,
 )
+from partpick.screening.dc_bias import BASIS_TEXT, DATASHEET, UNRATED, dc_bias
 
 if TYPE_CHECKING:
     from partpick.design.spec import Spec
@@ -58,6 +61,8 @@ FIELDS: tuple[str, ...] = (
     "ripple_a",
     "temp_max_degc",
     "lifecycle",
+    "capacitance_at_bias_f",
+    "bias_v",
 )
 CORE: tuple[str, ...] = ("esr_ohm", "ripple_a")
 USES_OUTPUT = ("duty_max", "il_peak_max_a", "icout_rms_max_a", "cout_min_f", "esr_max_ohm")
@@ -90,8 +95,8 @@ def effective_capacitance_f(capacitance_f, tolerance, kept_fraction, tolerance_d
     """Return C_eff = C · (1 − tol) · kept fraction, in F.
 
     capacitance_f: nominal capacitance, in F; tolerance: fraction, NaN where unknown (then
-    ``tolerance_default``); kept_fraction: share left after DC bias and ageing (1 for stable
-    dielectrics). Common practice, from memory.
+    ``tolerance_default``); kept_fraction: share left after DC bias and ageing, the product
+    of the two (1 for stable dielectrics). Definition of a ± tolerance; common practice.
     """
     tol = np.asarray(tolerance, dtype=float)
     tol = np.where(np.isnan(tol), tolerance_default, tol)
@@ -170,31 +175,42 @@ def temperature_rule(temp_max_degc, ambient_degc: float, margin_degc: float) -> 
     )  # fmt: skip
 
 
-def _part_figures(columns, profile):
-    """Return (voltage use, C_eff, notes) of every part from the profile's dielectric tables."""
+def _part_figures(columns, profile, working_v: float):
+    """Return (voltage use, C_eff, figures, notes) of every part at its working voltage."""
     diel = columns["dielectric"]
     sec = profile.section("capacitor")
     use = dielectric_figure(diel, _table(sec, "voltage_use."), sec["voltage_use_unknown"])
-    kept_table = _table(sec, "kept_fraction.")
-    kept = dielectric_figure(diel, kept_table, 1.0)
+    further = dielectric_figure(diel, _table(sec, "kept_fraction."), 1.0)
     unknown = np.asarray(diel == None, dtype=bool)  # noqa: E711 - elementwise on an object array
-    kept[unknown] = sec["kept_fraction_unknown"]
+    further[unknown] = sec["kept_fraction_unknown"]
+    bias = dc_bias(columns, working_v, profile)
     c_eff = effective_capacitance_f(
-        columns["capacitance_f"], columns["tolerance"], kept, sec["tolerance_default"]
-    )
+        columns["capacitance_f"], columns["tolerance"], bias.kept * further,
+        sec["tolerance_default"],
+    )  # fmt: skip
+    figures = {
+        "capacitance_eff_f": c_eff,
+        "voltage_use": use,
+        "working_voltage_v": np.full(c_eff.shape, float(working_v)),
+        "dc_bias_kept": bias.kept,
+        "kept_fraction_further": further,
+        "working_fraction_of_rating": bias.fraction_of_rating,
+    }
     notes = [
         (
-            f"dielectric not given; voltage use {sec['voltage_use_unknown']:.0%} and kept "
-            f"fraction {sec['kept_fraction_unknown']:.0%} assumed",
+            f"dielectric not given; voltage use {sec['voltage_use_unknown']:.0%} and the "
+            "'unknown' DC-bias table assumed",
             unknown,
         ),
         (
             f"tolerance not given; taken as ±{sec['tolerance_default']:.0%}",
             np.isnan(columns["tolerance"]),
         ),
+        (f"DC bias from the {BASIS_TEXT[DATASHEET]}", bias.basis == DATASHEET),
+        (f"DC bias: {BASIS_TEXT[UNRATED]}", bias.basis == UNRATED),
         *lifecycle_notes(columns["lifecycle"]),
     ]
-    return use, c_eff, notes
+    return use, c_eff, figures, notes
 
 
 def _part_rules(columns, spec, profile) -> list[RuleResult]:
@@ -231,7 +247,7 @@ def screen_output(
     max_parallel: int,
 ) -> Screen:
     """Return every output-capacitor rule over every capacitor in ``columns``."""
-    use, c_eff, notes = _part_figures(columns, profile)
+    use, c_eff, figures, notes = _part_figures(columns, profile, spec.vout_v)
     esr = columns["esr_ohm"]
     esr_known = np.where(np.isnan(esr), 0.0, esr)
     i_use = profile.value("capacitor.ripple_current_use")
@@ -257,7 +273,6 @@ def screen_output(
         *_part_rules(columns, spec, profile),
     )
     loss = capacitor_esr_loss_w(icout, esr, count)
-    figures = {"capacitance_eff_f": c_eff, "voltage_use": use}
     return Screen(
         "output-cap", KIND, {**columns, **figures}, rules, count, loss, tuple(notes),
         operating_point(spec, envelope, USES_OUTPUT),
@@ -273,7 +288,7 @@ def screen_input(
     max_parallel: int,
 ) -> Screen:
     """Return every input-capacitor rule over every capacitor in ``columns``."""
-    use, c_eff, notes = _part_figures(columns, profile)
+    use, c_eff, figures, notes = _part_figures(columns, profile, spec.vin_max_v)
     esr = columns["esr_ohm"]
     esr_known = np.where(np.isnan(esr), 0.0, esr)
     i_use = profile.value("capacitor.ripple_current_use")
@@ -299,7 +314,6 @@ def screen_input(
         )
     rules += _part_rules(columns, spec, profile)
     loss = capacitor_esr_loss_w(icin, esr, count)
-    figures = {"capacitance_eff_f": c_eff, "voltage_use": use}
     return Screen(
         "input-cap", KIND, {**columns, **figures}, tuple(rules), count, loss, tuple(notes),
         operating_point(spec, envelope, USES_INPUT),

@@ -64,6 +64,11 @@ SCHEMA: dict[str, tuple[str, str]] = {
 # keys a complete profile may leave out: a dielectric not listed keeps all its capacitance
 _OPTIONAL_PREFIXES = ("capacitor.kept_fraction.",)
 
+# DC-bias tables: ``capacitor.dc_bias.<dielectric or "unknown">.<percent of rated voltage>``
+# -> kept fraction. A table replaces the inherited table of its dielectric as a whole.
+DC_BIAS_PREFIX = "capacitor.dc_bias."
+DC_BIAS_CODES: tuple[str, ...] = (*DIELECTRICS, "unknown")
+
 
 @dataclass(frozen=True)
 class Profile:
@@ -87,6 +92,8 @@ class Profile:
 
     def unit_of(self, key: str) -> str:
         """Return the dimension key of the figure ``key``."""
+        if key.startswith(DC_BIAS_PREFIX):
+            return "fraction"
         return SCHEMA[key][0]
 
     @property
@@ -100,15 +107,37 @@ class Profile:
         return self.figures[f"capacitor.voltage_use.{dielectric}"]
 
     def kept_fraction(self, dielectric: str | None) -> float:
-        """Return the capacitance kept after DC bias and ageing for ``dielectric``."""
+        """Return the further share kept for ``dielectric`` (ageing; DC bias is separate)."""
         if dielectric is None:
             return self.figures["capacitor.kept_fraction_unknown"]
         return self.figures.get(f"capacitor.kept_fraction.{dielectric}", 1.0)
+
+    def dc_bias_table(self, dielectric: str | None) -> tuple[tuple[float, ...], tuple[float, ...]]:
+        """Return (working voltage / rated voltage, kept fraction) points for ``dielectric``.
+
+        None takes the ``unknown`` table; a dielectric without a table gives no points
+        (it keeps its capacitance under DC bias). The points are sorted by voltage.
+        """
+        code = "unknown" if dielectric is None else dielectric
+        return dc_bias_points(self.figures, code)
 
     def section(self, prefix: str) -> dict[str, float]:
         """Return the figures under ``prefix`` (e.g. ``"diode"``), keyed without the prefix."""
         start = prefix + "."
         return {k[len(start) :]: v for k, v in self.figures.items() if k.startswith(start)}
+
+
+def dc_bias_points(
+    figures: Mapping[str, float], code: str
+) -> tuple[tuple[float, ...], tuple[float, ...]]:
+    """Return the sorted (fraction of rating, kept fraction) points of ``code``'s table."""
+    head = f"{DC_BIAS_PREFIX}{code}."
+    points = sorted(
+        (int(key[len(head) :]) / 100.0, value)
+        for key, value in figures.items()
+        if key.startswith(head)
+    )
+    return tuple(p[0] for p in points), tuple(p[1] for p in points)
 
 
 def load_profile(name_or_file: str = "standard") -> Profile:
@@ -124,6 +153,7 @@ def load_profile(name_or_file: str = "standard") -> Profile:
     raw.pop("extends", None)
     figures = _flatten(raw, label)
     _check_complete(figures, label)
+    _check_dc_bias(figures, label)
     return Profile(name, description, label, extends, figures)
 
 
@@ -175,11 +205,13 @@ def _load_chain(
     return _merge(base, data), label, extends
 
 
-def _merge(base: dict, override: dict) -> dict:
+def _merge(base: dict, override: dict, path: str = "") -> dict:
     merged = dict(base)
     for key, value in override.items():
-        if isinstance(value, dict) and isinstance(merged.get(key), dict):
-            merged[key] = _merge(merged[key], value)
+        dotted = f"{path}{key}"
+        whole = f"{dotted}.".startswith(DC_BIAS_PREFIX) and dotted != DC_BIAS_PREFIX[:-1]
+        if isinstance(value, dict) and isinstance(merged.get(key), dict) and not whole:
+            merged[key] = _merge(merged[key], value, dotted + ".")
         else:
             merged[key] = value
     return merged
@@ -191,6 +223,9 @@ def _flatten(raw: Mapping[str, object], label: str, prefix: str = "") -> dict[st
         dotted = f"{prefix}{key}"
         if isinstance(value, dict):
             figures.update(_flatten(value, label, dotted + "."))
+            continue
+        if dotted.startswith(DC_BIAS_PREFIX):
+            figures[dotted] = _check_dc_bias_point(value, dotted, label)
             continue
         if dotted not in SCHEMA:
             raise ProfileError(label, "is not a profile figure", dotted)
@@ -215,6 +250,35 @@ def _check_value(value: object, key: str, label: str) -> float:
     if bad:
         raise ProfileError(label, f"{_EXPECTED[kind]} (got {value!r})", key)
     return number
+
+
+def _check_dc_bias_point(value: object, key: str, label: str) -> float:
+    """Check one DC-bias point: ``<dielectric>.<whole percent 0..100>`` = fraction in (0, 1]."""
+    code, _, percent = key[len(DC_BIAS_PREFIX) :].partition(".")
+    if code not in DC_BIAS_CODES:
+        raise ProfileError(label, f"names no dielectric ({', '.join(DC_BIAS_CODES)})", key)
+    if not (percent.isdigit() and 0 <= int(percent) <= 100):
+        reason = "must be a whole percent of the rated voltage, 0 to 100"
+        raise ProfileError(label, reason, key)
+    if isinstance(value, bool) or not isinstance(value, int | float):
+        raise ProfileError(label, f"must be a number (got {value!r})", key)
+    if not 0.0 < float(value) <= 1.0:
+        raise ProfileError(label, f"{_EXPECTED['use']} (got {value!r})", key)
+    return float(value)
+
+
+def _check_dc_bias(figures: Mapping[str, float], label: str) -> None:
+    """Check each DC-bias table: it starts at 0 % and never rises with the voltage."""
+    codes = {key[len(DC_BIAS_PREFIX) :].partition(".")[0] for key in figures}
+    for code in sorted(c for c in codes if c in DC_BIAS_CODES):
+        volts, kept = dc_bias_points(figures, code)
+        key = f"{DC_BIAS_PREFIX}{code}"
+        if not volts:
+            continue
+        if volts[0] != 0.0:
+            raise ProfileError(label, "must start at 0 (% of the rated voltage)", key)
+        if any(b > a for a, b in zip(kept, kept[1:], strict=False)):
+            raise ProfileError(label, "must not rise as the voltage rises (DC bias)", key)
 
 
 _EXPECTED = {

@@ -51,11 +51,9 @@ OVERRIDE_FIELDS: frozenset[str] = frozenset(p.field for p in PARAMETERS)
 # Power Electronics, 3rd ed., ch. 4, on Schottky diodes).
 _NO_RECOVERY_TYPES = frozenset({"schottky", "sic"})
 
-# The standard profile of issue 4, used when no profile object is given: a missing tolerance
-# is 0.2, and class II ceramics keep 0.6 (y5v 0.3) of their capacitance under DC bias and
-# ageing (common practice, from memory; the same figures as partpick/screening/profiles).
-_DEFAULT_TOLERANCE = 0.2
-_DEFAULT_KEPT_FRACTION = {"x5r": 0.6, "x7r": 0.6, "x7s": 0.6, "x6s": 0.6, "x8r": 0.6, "y5v": 0.3}
+# Without a profile object the built-in "standard" profile gives the tolerance default and
+# the DC-bias tables (partpick/screening/profiles/standard.toml).
+_DEFAULT_PROFILE = "standard"
 
 
 @dataclass(frozen=True, kw_only=True)
@@ -129,24 +127,49 @@ def _require(name: str, value: object, *, positive: bool) -> None:
 
 
 def effective_capacitance_f(
-    capacitance_f: float, tolerance: float | None, dielectric: str | None, profile: Any = None
+    capacitance_f: float,
+    tolerance: float | None,
+    dielectric: str | None,
+    profile: Any = None,
+    *,
+    working_v: float | None = None,
+    part: Mapping[str, object] | None = None,
 ) -> float:
-    """Return the capacitance one part keeps in service, C × (1 − tolerance) × kept, in F.
+    """Return the capacitance one part keeps in service, C × (1 − tol) × k_bias × kept, in F.
 
     capacitance_f: nominal capacitance, in F; tolerance: as a fraction (None: the profile's
-    default); dielectric: EIA or technology code of :mod:`partpick.fields`. The kept fraction
-    is the profile's (issue 4's ``standard`` figures without a profile). Source: issue 4
-    selection rules, common practice, from memory.
+    default); dielectric: EIA or technology code of :mod:`partpick.fields`; working_v: the DC
+    voltage across the part, in V (None: its rated voltage, the table's worst point); part:
+    its catalog fields, for ``voltage_v`` and a datasheet DC-bias point. k_bias and kept come
+    from the profile (``standard`` without one) through :mod:`partpick.screening.dc_bias`.
+    Source: the profile's DC-bias tables (from memory) and the definition of a ± tolerance.
     """
-    if profile is not None:
-        default_tolerance = profile.value("capacitor.tolerance_default")
-        kept = profile.kept_fraction(dielectric)
-    else:
-        default_tolerance = _DEFAULT_TOLERANCE
-        kept = _DEFAULT_KEPT_FRACTION.get(dielectric or "", 1.0)
+    import numpy as np
+
+    from partpick.screening.dc_bias import dc_bias
+    from partpick.screening.profiles import load_profile
+
+    profile = profile if profile is not None else load_profile(_DEFAULT_PROFILE)
+    part = part or {}
+    columns = {
+        "dielectric": np.array([dielectric], dtype=object),
+        "capacitance_f": np.array([float(capacitance_f)]),
+        **{
+            name: np.array([_number_or_nan(part.get(name))])
+            for name in ("voltage_v", "capacitance_at_bias_f", "bias_v")
+        },
+    }
+    kept = float(dc_bias(columns, math.inf if working_v is None else working_v, profile).kept[0])
+    kept *= profile.kept_fraction(dielectric)
     if tolerance is None or _is_nan(tolerance):
-        tolerance = default_tolerance
-    return float(capacitance_f) * (1.0 - float(tolerance)) * float(kept)
+        tolerance = profile.value("capacitor.tolerance_default")
+    return float(capacitance_f) * (1.0 - float(tolerance)) * kept
+
+
+def _number_or_nan(value: object) -> float:
+    if isinstance(value, bool) or not isinstance(value, int | float):
+        return math.nan
+    return float(value)
 
 
 def _is_nan(value: object) -> bool:
@@ -221,8 +244,13 @@ def stage_from_parts(
         diode_vf_v=values["vf_v"],
         diode_rd_ohm=values["rd_ohm"],
         cout_f=effective_capacitance_f(
-            values["capacitance_f"], cap.get("tolerance"), cap.get("dielectric"), profile
-        ),
+            values["capacitance_f"],
+            cap.get("tolerance"),
+            cap.get("dielectric"),
+            profile,
+            working_v=float(spec.vout_v),
+            part=cap,
+        ),  # fmt: skip
         esr_ohm=values["esr_ohm"],
         output_count=output_count,
         fsw_hz=float(spec.fsw_hz),
