@@ -385,6 +385,82 @@ KIND_FIELDS: dict[str, tuple[Field, ...]] = {
             positive=True,
             synonyms=("SRF", "Self Resonant Frequency", "Frequency - Self Resonant"),
         ),
+        # Core-loss data for the improved generalised Steinmetz equation (Venkatachalam et
+        # al., 2002). Either k, α, β with the core volume, cross-section and turns (so the
+        # flux density is B = L·i/(N·Ae)), or the loss at one sinusoidal reference point with
+        # α and β; see partpick/verify/core_loss.py.
+        Field(
+            "core_k",
+            "float",
+            "number",
+            "Steinmetz coefficient k: core loss density W/m³ = k·f^α·B̂^β (f in Hz, B̂ peak in T)",
+            positive=True,
+            synonyms=("Steinmetz k", "Core Loss Coefficient k", "Steinmetz Coefficient"),
+        ),
+        Field(
+            "core_alpha",
+            "float",
+            "number",
+            "Steinmetz frequency exponent α of the core material",
+            positive=True,
+            synonyms=("Steinmetz alpha", "Core Loss alpha"),
+        ),
+        Field(
+            "core_beta",
+            "float",
+            "number",
+            "Steinmetz flux-density exponent β of the core material",
+            positive=True,
+            synonyms=("Steinmetz beta", "Core Loss beta"),
+        ),
+        Field(
+            "core_volume_m3",
+            "float",
+            "m3",
+            "effective core volume Ve",
+            positive=True,
+            synonyms=("Core Volume", "Effective Volume", "Ve"),
+        ),
+        Field(
+            "core_area_m2",
+            "float",
+            "m2",
+            "effective core cross-section Ae",
+            positive=True,
+            synonyms=("Core Area", "Effective Area", "Ae"),
+        ),
+        Field(
+            "turns",
+            "int",
+            "count",
+            "number of turns of the winding",
+            positive=True,
+            synonyms=("Turns", "Number of Turns", "N"),
+        ),
+        Field(
+            "core_loss_ref_w",
+            "float",
+            "W",
+            "core loss at the reference point (sinusoidal current at core_loss_ref_hz)",
+            positive=True,
+            synonyms=("Core Loss", "Reference Core Loss"),
+        ),
+        Field(
+            "core_loss_ref_hz",
+            "float",
+            "Hz",
+            "frequency of the core-loss reference point",
+            positive=True,
+            synonyms=("Core Loss Frequency", "Reference Frequency"),
+        ),
+        Field(
+            "core_loss_ref_ripple_a",
+            "float",
+            "A",
+            "peak-to-peak sinusoidal ripple current of the core-loss reference point",
+            positive=True,
+            synonyms=("Core Loss Ripple Current", "Reference Ripple Current"),
+        ),
         *_SIZE_FIELDS,
         Field(
             "shielded",
@@ -570,6 +646,29 @@ KIND_FIELDS: dict[str, tuple[Field, ...]] = {
             "reverse recovery charge",
             synonyms=("Reverse Recovery Charge", "Qrr", "Recovery Charge"),
         ),
+        Field(
+            "cj_f",
+            "float",
+            "F",
+            "junction capacitance (energy-equivalent over the blocking voltage)",
+            positive=True,
+            synonyms=("Junction Capacitance", "Cj", "Diode Capacitance"),
+        ),
+        Field(
+            "ir_a",
+            "float",
+            "A",
+            "reverse leakage current at the rated reverse voltage, at ir_tj_degc",
+            positive=True,
+            synonyms=("Reverse Leakage Current", "Ir", "IR", "Current - Reverse Leakage @ Vr"),
+        ),
+        Field(
+            "ir_tj_degc",
+            "float",
+            "degC",
+            "junction temperature at which ir_a is given (25 °C where absent)",
+            synonyms=("Leakage Test Temperature", "Ir Temperature"),
+        ),
         _TJ_MAX,
         _THETA_JA,
     ),
@@ -658,10 +757,39 @@ KIND_FIELDS: dict[str, tuple[Field, ...]] = {
             positive=True,
             synonyms=("Coss", "Output Capacitance", "Output Capacitance (Coss)"),
         ),
+        Field(
+            "coss_er_f",
+            "float",
+            "F",
+            "energy-related output capacitance Co(er) (stores the same ½·C·V² as Coss(v))",
+            positive=True,
+            synonyms=("Co(er)", "Coss(er)", "Energy Related Output Capacitance"),
+        ),
         _TJ_MAX,
         _THETA_JA,
     ),
 }
+
+
+# Figures only the loss model reads (core loss, junction capacitance, leakage, Co(er)): kept
+# in the catalog, CSV and JSON, left out of the terminal parts table so it fits 100 columns.
+LOSS_MODEL_FIELDS: frozenset[str] = frozenset(
+    {
+        "core_k",
+        "core_alpha",
+        "core_beta",
+        "core_volume_m3",
+        "core_area_m2",
+        "turns",
+        "core_loss_ref_w",
+        "core_loss_ref_hz",
+        "core_loss_ref_ripple_a",
+        "cj_f",
+        "ir_a",
+        "ir_tj_degc",
+        "coss_er_f",
+    }
+)
 
 
 def fields_of(kind: str) -> tuple[Field, ...]:

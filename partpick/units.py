@@ -58,10 +58,13 @@ UNIT_WORDS: dict[str, dict[str, float]] = {
     "fraction": {"%": 0.01},
     "currency": {"$": 1.0, "usd": 1.0, "€": 1.0, "eur": 1.0, "£": 1.0, "gbp": 1.0, "¥": 1.0},
     "count": {"pcs": 1.0, "pc": 1.0, "pieces": 1.0, "units": 1.0},
+    "m2": {"m2": 1.0, "m²": 1.0, "cm2": 1e-4, "cm²": 1e-4, "mm2": 1e-6, "mm²": 1e-6},
+    "m3": {"m3": 1.0, "m³": 1.0, "cm3": 1e-6, "cm³": 1e-6, "mm3": 1e-9, "mm³": 1e-9},
+    "number": {},
 }
 
 # Prefix use that makes sense per dimension; a prefix outside this set is an error.
-_NO_PREFIX = {"degC", "degC/W", "mm", "fraction", "currency", "count", "h"}
+_NO_PREFIX = {"degC", "degC/W", "mm", "fraction", "currency", "count", "h", "m2", "m3", "number"}
 
 # Lengths have no SI prefix grammar here: "mm" is the base, so list the other lengths whole.
 UNIT_WORDS["mm"].update({"cm": 10.0, "in": 25.4, "inch": 25.4, '"': 25.4, "mil": 0.0254})
@@ -100,6 +103,9 @@ _DIMENSION_NAMES = {
     "fraction": "fraction or percent",
     "currency": "price",
     "count": "count",
+    "m2": "area (m²)",
+    "m3": "volume (m³)",
+    "number": "plain number",
 }
 
 

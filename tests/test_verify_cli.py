@@ -245,7 +245,7 @@ def _result_with_warnings():
         fsw_hz=400e3,
     )
     points = [OperatingPoint(6.0, 0.8), OperatingPoint(2.0, 0.2)]
-    return verify_design(spec, stage, points, efficiency_estimate=0.5)
+    return verify_design(spec, stage, points, efficiency_estimate=0.995)
 
 
 def test_render_shows_each_point_and_every_warning_as_a_sentence():
@@ -257,7 +257,7 @@ def test_render_shows_each_point_and_every_warning_as_a_sentence():
 
     result = _result_with_warnings()
     codes = {w.code for w in result.warnings}
-    assert {"ripple-above-limit", "high-duty", "efficiency-off-estimate"} <= codes
+    assert {"ripple-above-limit", "high-duty", "efficiency-below-estimate"} <= codes
     buffer = StringIO()
     render_verify(result, Console(file=buffer, width=100, color_system=None))
     text = buffer.getvalue()

@@ -8,14 +8,14 @@ from typing import Annotated
 
 import typer
 
-from partpick.cli.common import DbOption, friendly_errors
+from partpick.cli.common import EXIT_STRICT_REJECTS, DbOption, friendly_errors
 from partpick.cli.spec_options import with_spec_options
 from partpick.design.spec import Spec
 from partpick.errors import ParameterError, UnitError
 from partpick.render.console import make_console
 from partpick.render.exports import json_text
 from partpick.units import parse_quantity
-from partpick.verify.stage import PARAMETERS  # light: no scipy until a command runs
+from partpick.verify.stage import LOSS_PARAMETERS, PARAMETERS  # light: no scipy yet
 
 PARTS_PANEL = "Parts (name each, or give --bom)"
 OVERRIDES_PANEL = "Overrides of catalog figures"
@@ -50,8 +50,8 @@ def _override(flag: str, example: str, what: str):
     ]
 
 
-_EXAMPLES = {p.option: p.example for p in PARAMETERS}
-_OVERRIDE_FIELDS = {p.option: (p.field, p.unit) for p in PARAMETERS}
+_EXAMPLES = {p.option: p.example for p in PARAMETERS + LOSS_PARAMETERS}
+_OVERRIDE_FIELDS = {p.option: (p.field, p.unit) for p in PARAMETERS + LOSS_PARAMETERS}
 
 
 def _quantity(text: str, unit: str, option: str) -> float:
@@ -134,6 +134,12 @@ def verify_command(
     vf: _override("--vf", _EXAMPLES["--vf"], "Diode forward drop") = None,
     rd: _override("--rd", _EXAMPLES["--rd"], "Diode series resistance") = None,
     qrr: _override("--qrr", _EXAMPLES["--qrr"], "Diode reverse recovery charge") = None,
+    qg: _override("--qg", _EXAMPLES["--qg"], "Switch total gate charge") = None,
+    cj: _override("--cj", _EXAMPLES["--cj"], "Diode junction capacitance") = None,
+    strict: Annotated[
+        bool,
+        typer.Option("--strict", help="Exit 1 when any rating is violated at any point."),
+    ] = False,
     output_format: Annotated[
         VerifyFormat,
         typer.Option("--format", help="table for people, json (SI units) for scripts."),
@@ -172,6 +178,8 @@ def verify_command(
         "--vf": vf,
         "--rd": rd,
         "--qrr": qrr,
+        "--qg": qg,
+        "--cj": cj,
     }
     overrides = {
         _OVERRIDE_FIELDS[flag][0]: _quantity(text, _OVERRIDE_FIELDS[flag][1], flag)
@@ -200,5 +208,7 @@ def verify_command(
         typer.echo(f"wrote {plot}", err=True)
     if output_format is VerifyFormat.json:
         typer.echo(json_text(result.to_dict()), nl=False)
-        return
-    render_verify(result, make_console())
+    else:
+        render_verify(result, make_console())
+    if strict and result.violations:
+        raise typer.Exit(EXIT_STRICT_REJECTS)

@@ -67,6 +67,12 @@ SPEC_KEYS: dict[str, SpecKey] = {
     "ambient_max": SpecKey("ambient_max_degc", "degC", 50.0, "highest ambient temperature"),
     "iout_min": SpecKey("iout_min_a", "A", None, "lightest load, for the DCM check"),
     "gate_drive_a": SpecKey("gate_drive_a", "A", 1.0, "gate driver current"),
+    "gate_drive_v": SpecKey(
+        "gate_drive_v", "V", 10.0, "gate drive voltage, for the Qg·V·fsw gate-drive loss"
+    ),
+    "quiescent_w": SpecKey(
+        "quiescent_w", "W", 0.0, "fixed controller loss (quiescent and housekeeping)"
+    ),
     "name": SpecKey("name", None, "", "name of the design"),
     "notes": SpecKey("notes", None, "", "free text"),
 }
@@ -81,6 +87,7 @@ _POSITIVE_FIELDS = (
     ("fsw", "fsw_hz"),
     ("vout_ripple", "vout_ripple_v"),
     ("gate_drive_a", "gate_drive_a"),
+    ("gate_drive_v", "gate_drive_v"),
 )
 _OPTIONAL_POSITIVE_FIELDS = (("vin_ripple", "vin_ripple_v"), ("iout_min", "iout_min_a"))
 
@@ -102,6 +109,10 @@ class Spec:
     ambient_max_degc: float = 50.0
     iout_min_a: float | None = None
     gate_drive_a: float = 1.0
+    # 10 V: the usual gate drive of a standard-level MOSFET (common practice, no published
+    # source); 0 W: no controller loss unless the spec states one
+    gate_drive_v: float = 10.0
+    quiescent_w: float = 0.0
     topology: str = "boost"
     name: str = ""
     notes: str = ""
@@ -169,6 +180,8 @@ class Spec:
             self._fail("vout_ripple", "must be well below vout", self.vout_ripple_v)
         if self.iout_min_a is not None and self.iout_min_a > self.iout_a:
             self._fail("iout_min", f"is above iout ({self.iout_a:g} A)", self.iout_min_a)
+        if self.quiescent_w < 0:
+            self._fail("quiescent_w", "cannot be negative", self.quiescent_w)
         low, high = _AMBIENT_RANGE_DEGC
         if not low <= self.ambient_max_degc <= high:
             self._fail(

@@ -16,7 +16,7 @@ from rich.markup import escape
 from rich.progress import BarColumn, DownloadColumn, Progress, TextColumn, TimeRemainingColumn
 from rich.table import Table
 
-from partpick.fields import KIND_FIELDS, Field, fields_of
+from partpick.fields import KIND_FIELDS, LOSS_MODEL_FIELDS, Field, fields_of
 from partpick.outputs import write_output
 from partpick.render.console import STYLE_FAIL, STYLE_HEADING, STYLE_MUTED, STYLE_UNVERIFIED
 from partpick.render.exports import json_text, tidy_number
@@ -182,7 +182,9 @@ def table_fields(kind: str) -> list[Field]:
     formats, which carry every field, so the table fits a 100-column terminal.
     """
     shared = {f.name for k, fs in KIND_FIELDS.items() if k != kind for f in fs}
-    own = [f for f in KIND_FIELDS[kind] if f.name not in shared]
+    own = [
+        f for f in KIND_FIELDS[kind] if f.name not in shared and f.name not in LOSS_MODEL_FIELDS
+    ]
     common = {f.name: f for f in fields_of(kind)}
     return [*own, common["unit_price"], common["stock"]]
 

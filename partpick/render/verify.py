@@ -2,6 +2,8 @@
 
 from __future__ import annotations
 
+import math
+
 from rich import box
 from rich.console import Console
 from rich.panel import Panel
@@ -11,18 +13,10 @@ from rich.text import Text
 from partpick.render.console import STYLE_CAUTION, STYLE_HEADING, STYLE_MUTED, STYLE_UNVERIFIED
 from partpick.units import format_eng
 from partpick.verify.stage import Stage
-from partpick.verify.steady_state import LOSS_KEYS
 from partpick.verify.sweep import PointResult, VerifyResult, VerifyWarning
+from partpick.verify.terms import LOSS_KEYS, LOSS_TERMS
 
-LOSS_TITLES = {
-    "dcr": "DCR",
-    "switch_conduction": "Q cond",
-    "switching": "Q sw",
-    "coss": "Coss",
-    "diode_conduction": "D cond",
-    "diode_recovery": "Qrr",
-    "esr": "ESR",
-}
+LOSS_TITLES = {t.key: t.title for t in LOSS_TERMS}
 
 
 def stage_summary(stage: Stage) -> Text:
@@ -62,7 +56,7 @@ def points_table(result: VerifyResult) -> Table:
             format_eng(s.il_min_a, "A"),
             format_eng(s.il_max_a, "A"),
             format_eng(s.il_rms_a, "A"),
-            f"{s.efficiency * 100:.1f} %",
+            efficiency_text(s),
             style=style,
         )
     return table
@@ -117,10 +111,11 @@ def warning_sentence(warning: VerifyWarning) -> str:
             f"the regulated duty {value:.3f} is above {limit:g}; a boost this close to full "
             "duty is hard to control and loses efficiency (common practice)"
         )
-    elif warning.code == "efficiency-off-estimate":
+    elif warning.code == "efficiency-below-estimate":
         text = (
-            f"efficiency {value * 100:.1f} % is far from the {limit * 100:.1f} % estimate the "
-            "design used; rerun with --efficiency set to it"
+            f"efficiency {value * 100:.1f} % is below the {limit * 100:.1f} % the design's "
+            "currents were computed with, so its stresses are underestimated; rerun the design "
+            f"with --efficiency {_floor_percent(value)} or lower"
         )
     elif warning.code == "diode-reconducts":
         text = (
@@ -131,6 +126,27 @@ def warning_sentence(warning: VerifyWarning) -> str:
     else:  # a code added to the core before its sentence: still show the facts
         text = f"{warning.code}: {value:g} (limit {limit})"
     return f"{where}: {text}"
+
+
+def _floor_percent(efficiency: float) -> str:
+    """Return the efficiency rounded down to a tenth of a percent, as option text."""
+    return f"{math.floor(efficiency * 1000.0) / 10.0:.1f}%"
+
+
+def efficiency_text(state) -> str:
+    """Return the efficiency as text, "≤ 95.1 %" where a loss term is missing (upper bound)."""
+    mark = "≤ " if state.efficiency_is_upper_bound else ""
+    return f"{mark}{state.efficiency * 100:.1f} %"
+
+
+def not_included_lines(points: tuple[PointResult, ...]) -> list[str]:
+    """Return one line per loss term left out (the same at every point), naming the part."""
+    seen: dict[tuple[str, str], str] = {}
+    for item in points:
+        for gap in item.state.not_included:
+            title = LOSS_TITLES.get(gap.term, gap.term)
+            seen.setdefault((gap.term, gap.part), f"{title}: no {gap.figure} for {gap.part}")
+    return [f"not included: {text}" for text in seen.values()]
 
 
 def render_verify(result: VerifyResult, console: Console) -> None:
@@ -150,6 +166,16 @@ def render_verify(result: VerifyResult, console: Console) -> None:
     console.print(points_table(result))
     console.print(Text("Losses per element (mW)", style=STYLE_HEADING))
     console.print(losses_table(result.points))
+    gaps = not_included_lines(result.points)
+    for line in gaps:
+        console.print(Text(line, style=STYLE_UNVERIFIED))
+    if gaps:
+        console.print(
+            Text(
+                "efficiency marked ≤ is an upper bound: the terms above are not included",
+                style=STYLE_MUTED,
+            )
+        )
     for note in result.stage.notes:
         console.print(Text(f"note: {note}", style=STYLE_MUTED))
     if result.warnings:

@@ -21,7 +21,7 @@ _HOMES = {
     "Stage": "stage",
     "effective_capacitance_f": "stage",
     "stage_from_parts": "stage",
-    "LOSS_KEYS": "steady_state",
+    "LOSS_KEYS": "terms",
     "SteadyState": "steady_state",
     "steady_state": "steady_state",
     "OperatingPoint": "sweep",

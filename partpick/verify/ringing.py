@@ -1,51 +1,62 @@
-"""The switch node of a boost in DCM: the ring while the inductor current rests at zero.
+"""The switch node of a boost in DCM: the whole ring while the inductor current rests at zero.
 
 When the diode stops conducting (iL = 0) the switch node is left at V0 ≈ vo + V_F. Neither
 semiconductor conducts, so the node is the capacitor of a series RLC circuit driven by Vin:
 Vin, the inductor L with its winding resistance R, and the switch-node capacitance C to
-ground. We take C = C_oss of the switch and neglect the diode's junction capacitance (which
-would add to C and slow the ring), the non-linearity of C_oss with voltage, and every damping
-but the winding resistance (core loss and the input capacitor's ESR damp a real ring faster).
+ground. C = C_oss + C_j: the switch's output capacitance (its energy-equivalent value, so
+½·C·V² is the energy C_oss(v) really stores) and the diode's junction capacitance, whose
+other end sits on the output, an AC ground. The non-linearity of C with voltage and every
+damping but the winding resistance are neglected (core loss and the input capacitor's ESR
+damp a real ring faster).
 
 With i = C dv/dt and L di/dt = Vin − R i − v the node obeys
 LC v'' + RC v' + v = Vin, v(0) = V0, v'(0) = 0 (the current starts at zero), whose solution
 is the series RLC step response [NR]: with ΔV = V0 − Vin, α = R/(2L), ω0 = 1/√(LC),
 
 * underdamped (α < ω0), ω_d = √(ω0² − α²):
-  v(t) = Vin + ΔV·e^(−αt)·(cos ω_d t + (α/ω_d)·sin ω_d t);
+  v(t) = Vin + ΔV·e^(−αt)·(cos ω_d t + (α/ω_d)·sin ω_d t),
+  i(t) = C·dv/dt = −C·ΔV·(ω0²/ω_d)·e^(−αt)·sin ω_d t;
 * critically damped (α = ω0): v(t) = Vin + ΔV·(1 + αt)·e^(−αt);
 * overdamped (α > ω0), β = √(α² − ω0²):
   v(t) = Vin + ΔV·e^(−αt)·(cosh βt + (α/β)·sinh βt).
 
-The (α/ω_d)·sin term is what makes the initial current zero; at the valleys and crests
-(ω_d t = kπ) it vanishes and the deviation from Vin is ±ΔV·e^(−αkπ/ω_d).
+The idle interval is followed as it is, in three stages (the piecewise, one-state-at-a-time
+analysis of a resonant transition, [EM] on resonant and soft switching):
 
-Where Vin − ΔV·e^(−απ/ω_d) < 0, which for light damping means V0 > 2·Vin, the first valley
-would take the node below ground; the switch's body diode conducts instead and holds the
-node at about 0 V (its forward drop neglected). We then take the node to stay at 0 V until the
-switch turns on: the natural zero-voltage turn-on of a DCM boost with Vout > 2·Vin [EM].
-Strictly the body diode conducts only until the reversed inductor current has returned to
-zero (about L·|iL|/Vin), after which the node rings again about Vin from 0 V; a long idle
-interval can therefore end with the node above 0 V, which this model does not follow.
+1. **The fall.** The ring above. Where its first valley Vin − ΔV·e^(−απ/ω_d) stays above
+   ground (V0 < 2·Vin for light damping) it simply goes on ringing about Vin.
+2. **The body-diode clamp.** Otherwise the node reaches 0 V at t_g, with the inductor current
+   i_g < 0. The switch's body diode (ideal here) holds the node at 0 V while
+   L di/dt = Vin − R i brings the current back to zero, which takes
+   t_c = (L/R)·ln(1 + R·|i_g|/Vin) ≈ L·|i_g|/Vin.
+3. **The ring from ground.** The node then rings again about Vin from v = 0, i = 0, between
+   0 and about 2·Vin, and never reaches ground again (its valleys are damped above 0).
 
-Only the turn-on C_oss loss uses this ring; the waveform model of
+The switch turns on against wherever this leaves the node; at zero idle time that is V0, the
+CCM turn-on voltage, so the turn-on loss ½·C·v_on²·f is continuous across the CCM/DCM
+boundary. Only the turn-on loss uses this ring; the waveform model of
 :mod:`partpick.verify.orbit` keeps iL = 0 through the idle interval.
 
 References
 ----------
 .. [EM] R. W. Erickson and D. Maksimovic, *Fundamentals of Power Electronics*, 3rd ed.,
-   Springer, 2020, ch. 5 (DCM: the ringing of the switch node while the inductor current is
-   zero).
+   Springer, 2020: ch. 5 (DCM: the ringing of the switch node while the inductor current is
+   zero), and the chapters on resonant conversion and soft switching (the piecewise analysis
+   of a resonant transition clamped by a diode).
 .. [NR] J. W. Nilsson and S. A. Riedel, *Electric Circuits*, ch. 8 (natural and step
    response of the series RLC circuit).
 """
 
 from __future__ import annotations
 
+import math
+
 import numpy as np
 from numpy.typing import ArrayLike
+from scipy.optimize import brentq
 
 __all__ = [
+    "dcm_clamp_interval_s",
     "dcm_ring_first_valley_v",
     "dcm_ring_node_voltage_v",
     "dcm_turn_on_node_voltage_v",
@@ -160,23 +171,68 @@ def dcm_turn_on_node_voltage_v(
 ) -> np.ndarray:
     """Return the node voltage the switch turns on against after an idle interval, in V.
 
-    v_on = v(t_idle) of :func:`dcm_ring_node_voltage_v`, except 0 V once the ring has reached
-    ground: where the first valley Vin − (V0 − Vin)·e^(−απ/ω_d) is below zero, the body diode
-    clamps the node at about 0 V from the instant v(t) first reaches 0 (before π/ω_d, where
-    v falls monotonically) and the node is taken to stay there. At t_idle = 0 this is V0,
-    the CCM turn-on voltage at the CCM/DCM boundary. t_idle_s: the idle interval, in s;
+    The fall, the body-diode clamp and the ring from ground of the module docstring: v(t) of
+    :func:`dcm_ring_node_voltage_v` until the node first reaches 0 V at t_g (only where the
+    first valley lies below ground); 0 V for the clamp t_c = (L/R)·ln(1 + R·|i_g|/Vin)
+    (L·|i_g|/Vin for R = 0); then the ring about Vin from v = 0, i = 0. At t_idle = 0 this is
+    V0, the CCM turn-on voltage at the CCM/DCM boundary. t_idle_s: the idle interval, in s;
     the other arguments and units as for :func:`dcm_ring_node_voltage_v`.
 
     References: Erickson & Maksimovic, *Fundamentals of Power Electronics*, 3rd ed., ch. 5
-    (DCM ringing, zero-voltage turn-on when Vout > 2·Vin); Nilsson & Riedel, *Electric
-    Circuits*, ch. 8.
+    (DCM ringing) and its chapters on resonant and soft switching; Nilsson & Riedel,
+    *Electric Circuits*, ch. 8.
+    """
+    arrays = np.broadcast_arrays(
+        *(np.asarray(a, dtype=float) for a in
+          (vin_v, v_start_v, inductance_h, capacitance_f, resistance_ohm, t_idle_s))
+    )  # fmt: skip
+    flat = [a.ravel() for a in arrays]
+    out = np.array([_turn_on_v(*values) for values in zip(*flat, strict=True)], dtype=float)
+    return out.reshape(arrays[0].shape)
+
+
+def dcm_clamp_interval_s(
+    vin_v: float, v_start_v: float, inductance_h: float, capacitance_f: float, resistance_ohm: float
+) -> tuple[float, float] | None:
+    """Return (t_g, t_c): when the ring first reaches ground and how long the clamp lasts, in s.
+
+    None where the ring never reaches ground (first valley ≥ 0, or no overshoot at all).
+    Arguments and units as for :func:`dcm_ring_node_voltage_v`.
     """
     ring = (vin_v, v_start_v, inductance_h, capacitance_f, resistance_ohm)
-    t = np.asarray(t_idle_s, dtype=float)
-    node = dcm_ring_node_voltage_v(*ring, t)
-    alpha, omega0_sq = _ring_rates(*ring[2:])
-    spread = omega0_sq - alpha**2
-    first_valley_s = np.pi / np.sqrt(np.where(spread > 0.0, spread, 1.0))
-    reaches_ground = (spread > 0.0) & (dcm_ring_first_valley_v(*ring) < 0.0)
-    clamped = reaches_ground & ((t >= first_valley_s) | (node <= 0.0))
-    return np.where(clamped, 0.0, node)
+    if float(dcm_ring_first_valley_v(*ring)) >= 0.0:
+        return None
+    alpha, omega0_sq = (float(x) for x in _ring_rates(*ring[2:]))
+    omega_d = math.sqrt(omega0_sq - alpha**2)
+    t_ground = brentq(
+        lambda t: float(dcm_ring_node_voltage_v(*ring, t)),
+        0.0,
+        math.pi / omega_d,
+        xtol=1e-16,
+        rtol=1e-13,
+    )
+    step = v_start_v - vin_v
+    current_a = (
+        -capacitance_f * step * (omega0_sq / omega_d) * math.exp(-alpha * t_ground)
+        * math.sin(omega_d * t_ground)
+    )  # fmt: skip
+    if resistance_ohm > 0.0:
+        clamp_s = inductance_h / resistance_ohm * math.log1p(resistance_ohm * -current_a / vin_v)
+    else:
+        clamp_s = inductance_h * -current_a / vin_v
+    return t_ground, clamp_s
+
+
+def _turn_on_v(vin, v_start, inductance, capacitance, resistance, t_idle) -> float:
+    ring = (vin, v_start, inductance, capacitance, resistance)
+    clamp = dcm_clamp_interval_s(*ring)
+    if clamp is None or t_idle <= clamp[0]:
+        return float(dcm_ring_node_voltage_v(*ring, t_idle))
+    t_ground, clamp_s = clamp
+    if t_idle <= t_ground + clamp_s:
+        return 0.0
+    return float(
+        dcm_ring_node_voltage_v(
+            vin, 0.0, inductance, capacitance, resistance, t_idle - t_ground - clamp_s
+        )
+    )

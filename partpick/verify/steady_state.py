@@ -22,6 +22,7 @@ import numpy as np
 
 from partpick import losses
 from partpick.verify.blas import single_blas_thread
+from partpick.verify.core_loss import core_loss_w
 from partpick.verify.orbit import (
     MODE_CCM,
     Circuit,
@@ -34,6 +35,8 @@ from partpick.verify.regulation import regulated_orbit
 from partpick.verify.ringing import dcm_turn_on_node_voltage_v
 from partpick.verify.sampling import sample_segment, segment_extremes
 from partpick.verify.stage import Stage
+from partpick.verify.terms import LOSS_KEYS, NotIncluded, heat_w, not_included_terms
+from partpick.verify.thermal import junction_temperature_degc, leakage_with_self_heating
 
 __all__ = [
     "LOSS_KEYS",
@@ -44,15 +47,6 @@ __all__ = [
     "steady_state",
 ]
 
-LOSS_KEYS: tuple[str, ...] = (
-    "dcr",
-    "switch_conduction",
-    "switching",
-    "coss",
-    "diode_conduction",
-    "diode_recovery",
-    "esr",
-)
 _IL_ROW = np.array([1.0, 0.0, 0.0])
 
 
@@ -61,8 +55,10 @@ class SteadyState:
     """The steady state at one operating point, in SI units.
 
     ``regulated`` is True when the duty was solved for the target output and reached it.
-    ``losses_w`` maps each of :data:`LOSS_KEYS` to its power, in W. ``orbit`` keeps the
-    solved intervals for waveform sampling.
+    ``losses_w`` maps each of :data:`LOSS_KEYS` to its power, in W (0 for a term in
+    ``not_included``). ``diode_tj_degc`` is the diode junction at the stage's ambient with
+    its leakage (None without θJA); ``thermal_runaway`` is True where its leakage has no
+    steady temperature. ``orbit`` keeps the solved intervals for waveform sampling.
     """
 
     vin_v: float
@@ -82,6 +78,10 @@ class SteadyState:
     losses_w: dict[str, float]
     orbit: Orbit = field(repr=False)
     idle_vout_min_v: float | None = None
+    not_included: tuple[NotIncluded, ...] = ()
+    diode_tj_degc: float | None = None
+    thermal_runaway: bool = False
+    switch_node_turn_on_v: float = 0.0
 
     @property
     def diode_would_reconduct(self) -> bool:
@@ -113,6 +113,15 @@ class SteadyState:
     @property
     def total_loss_w(self) -> float:
         return float(sum(self.losses_w.values()))
+
+    @property
+    def efficiency_is_upper_bound(self) -> bool:
+        """True where a loss term is missing, so the true efficiency can only be lower."""
+        return bool(self.not_included)
+
+    def heat_w(self, element: str) -> float:
+        """Return the loss dissipated in ``element`` (a role, ``driver``, ``controller``), W."""
+        return heat_w(self.losses_w, element)
 
 
 def steady_state(
@@ -155,7 +164,10 @@ def analyse_orbit(solved: Orbit, *, regulated: bool) -> SteadyState:
         period * circuit.load_ohm
     )
     conduction = _conduction_losses(circuit, moments)
-    formula = _formula_losses(solved)
+    formula, v_turn_on = _formula_losses(solved)
+    formula["core"] = _core_loss(solved)
+    leakage = _leakage(solved, conduction["diode_conduction"])
+    formula["leakage"] = leakage.leakage_w if leakage is not None else 0.0
     low, high, idle_low = _extremes(solved)
     return SteadyState(
         vin_v=circuit.vin_v,
@@ -176,6 +188,10 @@ def analyse_orbit(solved: Orbit, *, regulated: bool) -> SteadyState:
         losses_w={k: float({**conduction, **formula}[k]) for k in LOSS_KEYS},
         orbit=solved,
         idle_vout_min_v=idle_low,
+        not_included=not_included_terms(circuit.stage),
+        diode_tj_degc=_diode_tj(circuit.stage, conduction, leakage),
+        thermal_runaway=bool(leakage is not None and leakage.runaway),
+        switch_node_turn_on_v=v_turn_on,
     )
 
 
@@ -216,15 +232,18 @@ def _conduction_losses(circuit: Circuit, moments: dict[str, np.ndarray]) -> dict
     }
 
 
-def _formula_losses(solved: Orbit) -> dict[str, float]:
-    """Return the switching, C_oss and recovery losses at the orbit's switching instants, in W.
+def _formula_losses(solved: Orbit) -> tuple[dict[str, float], float]:
+    """Return the switching-instant losses in W, and the node voltage at turn-on in V.
 
     Turn-off interrupts iL at the end of the on interval against the diode-clamped node
     (vo + V_F + R_D·iL). In CCM turn-on takes over iL(0) from the conducting diode, which then
-    blocks vo and gives up its Q_rr; in DCM the switch turns on at zero current after the
-    diode has stopped conducting, so neither overlap nor recovery loss occurs at turn-on
-    ([EM] ch. 4-5), and C_oss is discharged from wherever the idle ring has left the node
-    (:func:`_dcm_turn_on_v`).
+    blocks vo and gives up its recovered charge (scaled to the current it carried) through the
+    switch; in DCM the switch turns on at zero current after the diode has stopped
+    conducting, so neither overlap nor recovery loss occurs at turn-on ([EM] ch. 4-5). At
+    turn-on the switch discharges C_oss from the node voltage v_on and charges the diode's
+    C_j by the same step from the output, dissipating ½·C·v_on² in each ([EM] ch. 4, device
+    capacitances); in DCM v_on is wherever the idle ring has left the node
+    (:func:`_dcm_turn_on_v`). Gate drive and the controller's fixed loss close the list.
     """
     circuit, stage = solved.circuit, solved.circuit.stage
     fsw, t_switch = stage.fsw_hz, stage.transition_time_s
@@ -238,40 +257,95 @@ def _formula_losses(solved: Orbit) -> dict[str, float]:
             circuit.vout_rows["off"] @ first.z_start + stage.diode_vf_v + stage.diode_rd_ohm * i_on
         )
         turn_on = losses.switch_switching_loss_w(v_on, i_on, t_switch, 0.0, fsw)
+        charge = losses.recovered_charge_c(
+            stage.qrr_c or 0.0, i_on, stage.diode_if_avg_a or math.nan
+        )
         recovery = losses.diode_recovery_loss_w(
-            stage.qrr_c, circuit.vout_rows["on"] @ first.z_start, fsw
+            charge, circuit.vout_rows["on"] @ first.z_start, fsw
         )
     else:
         v_on, turn_on, recovery = _dcm_turn_on_v(solved), 0.0, 0.0
-    return {
+    terms = {
         "switching": float(turn_off + turn_on),
-        "coss": float(losses.switch_coss_loss_w(stage.coss_f, v_on, fsw)),
-        "diode_recovery": float(recovery),
+        "coss": float(losses.switch_coss_loss_w(stage.coss_f or 0.0, v_on, fsw)),
+        "diode_cj": float(losses.switch_coss_loss_w(stage.cj_f or 0.0, v_on, fsw)),
+        "recovery": float(recovery),
+        "gate_drive": float(losses.gate_drive_loss_w(stage.qg_c or 0.0, stage.gate_drive_v, fsw)),
+        "quiescent": float(stage.quiescent_w),
     }
+    return terms, float(v_on)
+
+
+def _core_loss(solved: Orbit) -> float:
+    """Return the iGSE core loss on the orbit's switching instants, in W (0 without data)."""
+    core = solved.circuit.stage.core
+    if core is None:
+        return 0.0
+    times = [s.start_s for s in solved.segments] + [solved.circuit.period_s]
+    currents = [s.z_start[0] for s in solved.segments] + [solved.segments[0].z_start[0]]
+    return core_loss_w(core, np.array(times), np.array(currents))
+
+
+def _leakage(solved: Orbit, diode_conduction_w: float):
+    """Return the diode's leakage at its self-heated junction, or None without I_R data.
+
+    The diode blocks vo while the switch is on and vo − v_node (the node ringing about Vin)
+    while idle in DCM, so ∫ v_R dt = ∫_on vo dt + ∫_idle vo dt − Vin·t_idle.
+    """
+    circuit, stage = solved.circuit, solved.circuit.stage
+    if stage.ir_a is None:
+        return None
+    blocking_v_s = 0.0
+    for segment in solved.segments:
+        if segment.name == "on":
+            blocking_v_s += float(circuit.vout_rows["on"] @ segment.integral)
+        elif segment.name == "idle":
+            idle_v_s = float(circuit.vout_rows["idle"] @ segment.integral)
+            blocking_v_s += idle_v_s - circuit.vin_v * segment.duration_s
+    return leakage_with_self_heating(
+        ambient_degc=stage.ambient_degc,
+        theta_ja_degc_w=stage.diode_theta_ja_degc_w or 0.0,
+        fixed_loss_w=diode_conduction_w,
+        ir_a=stage.ir_a,
+        ir_tj_degc=stage.ir_tj_degc,
+        blocking_v_s=max(blocking_v_s, 0.0),
+        period_s=circuit.period_s,
+    )
+
+
+def _diode_tj(stage: Stage, conduction: dict[str, float], leakage) -> float | None:
+    """Return the diode junction temperature at the stage's ambient, in °C (None: no θJA)."""
+    if stage.diode_theta_ja_degc_w is None:
+        return None
+    if leakage is not None and stage.diode_theta_ja_degc_w:
+        return float(leakage.tj_degc)
+    return junction_temperature_degc(
+        stage.ambient_degc, conduction["diode_conduction"], stage.diode_theta_ja_degc_w
+    )
 
 
 def _dcm_turn_on_v(solved: Orbit) -> float:
     """Return the switch-node voltage at turn-on in DCM, in V.
 
     The node starts the idle interval at V0 = vo + V_F (the diode's drop at zero current)
-    and rings about Vin through L, its DCR and C_oss (the diode's junction capacitance
-    neglected) until the switch turns on; where the ring reaches ground the body diode
-    holds it at 0 V (:mod:`partpick.verify.ringing`). The interval model still keeps iL = 0
-    through the idle interval: the ring only stores ½·C_oss·(V0 − Vin)² back and forth, and
-    here it sets nothing but v_on. As the idle interval shrinks to zero v_on tends to V0, the
-    CCM turn-on voltage at the boundary, so the C_oss loss is continuous across it.
+    and rings about Vin through L, its DCR and C_oss + C_j until the switch turns on: the
+    fall, the body-diode clamp where the ring reaches ground, and the ring from ground
+    (:mod:`partpick.verify.ringing`). The interval model still keeps iL = 0 through the idle
+    interval: the ring only moves ½·C·(V0 − Vin)² back and forth, and here it sets nothing
+    but v_on. As the idle interval shrinks to zero v_on tends to V0, the CCM turn-on voltage
+    at the boundary, so the turn-on loss is continuous across it.
     """
     circuit, stage = solved.circuit, solved.circuit.stage
     idle = solved.segments[-1]
     v_start = float(circuit.vout_rows["idle"] @ idle.z_start) + stage.diode_vf_v
-    if stage.coss_f <= 0.0:
+    if stage.node_capacitance_f <= 0.0:
         return v_start  # no capacitance on the node: nothing rings and nothing is lost
     return float(
         dcm_turn_on_node_voltage_v(
             circuit.vin_v,
             v_start,
             stage.inductance_h,
-            stage.coss_f,
+            stage.node_capacitance_f,
             stage.dcr_ohm,
             idle.duration_s,
         )

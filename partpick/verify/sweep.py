@@ -22,16 +22,17 @@ from partpick.verify.steady_state import SteadyState, sample_segment, steady_sta
 
 # A regulated duty above 0.9 is impractical for a boost (issue 3; common practice).
 HIGH_DUTY = 0.9
-# How far the verified efficiency may sit from the estimate the design used before it is
-# worth a warning (common practice, no published source).
-EFFICIENCY_TOLERANCE = 0.05
+# How far the verified efficiency may sit below the estimate the design's currents were
+# computed with before it is worth a warning (common practice, no published source). Above
+# the estimate is never warned about: the design is then conservative.
+EFFICIENCY_TOLERANCE = 0.01
 
 WARNING_CODES: tuple[str, ...] = (
     "vout-unreachable",
     "ripple-above-limit",
     "dcm-where-ccm-assumed",
     "high-duty",
-    "efficiency-off-estimate",
+    "efficiency-below-estimate",
     "diode-reconducts",
 )
 
@@ -88,6 +89,11 @@ class PointResult:
             "mode": s.mode,
             "efficiency": s.efficiency,
             "losses_w": dict(s.losses_w),
+            "not_included": [n.to_dict() for n in s.not_included],
+            "efficiency_is_upper_bound": s.efficiency_is_upper_bound,
+            "switch_node_turn_on_v": s.switch_node_turn_on_v,
+            "diode_tj_degc": s.diode_tj_degc,
+            "thermal_runaway": s.thermal_runaway,
             "regulated": s.regulated,
             "vout_min_v": s.vout_min_v,
             "vout_max_v": s.vout_max_v,
@@ -114,6 +120,7 @@ class VerifyResult:
     regulated: bool
     points: tuple[PointResult, ...]
     warnings: tuple[VerifyWarning, ...]
+    violations: tuple = ()
 
     def worst_point(self) -> PointResult:
         """Return the point with the largest output ripple (the one to look at first)."""
@@ -123,12 +130,14 @@ class VerifyResult:
         return {
             "points": [p.to_dict() for p in self.points],
             "warnings": [w.to_dict() for w in self.warnings],
+            "violations": [v.to_dict() for v in self.violations],
             "regulated": self.regulated,
             "duty": self.duty,
             "vout_v": self.vout_v,
             "vout_ripple_limit_v": self.vout_ripple_limit_v,
             "efficiency_estimate": self.efficiency_estimate,
-            "stage": {k: v for k, v in asdict(self.stage).items() if k != "notes"},
+            "stage": {k: v for k, v in asdict(self.stage).items() if k not in ("notes", "parts")},
+            "parts": dict(self.stage.parts),
             "notes": list(self.stage.notes),
         }
 
@@ -167,7 +176,8 @@ def verify_design(
     Regulated (the default) solves the duty for ``spec.vout_v`` at each point; ``duty`` runs
     every point open loop at that duty instead. ``efficiency_estimate`` is the figure the
     design used (default ``spec.efficiency``, the BOM passes its final estimate); full-load
-    points further than :data:`EFFICIENCY_TOLERANCE` from it are warned about.
+    points more than :data:`EFFICIENCY_TOLERANCE` below it are warned about (the design's
+    currents were then underestimated).
     ``ccm_assumed_down_to_a`` is the lightest load at which the design assumed CCM (default
     the full load ``spec.iout_a``).
     """
@@ -225,8 +235,8 @@ def _point_warnings(
         limit = s.vin_v - result.state.orbit.circuit.stage.diode_vf_v
         found.append(warn("diode-reconducts", s.idle_vout_min_v, limit, "V"))
     full_load = point.iout_a >= spec.iout_a * (1.0 - 1e-9)
-    if full_load and abs(s.efficiency - estimate) > EFFICIENCY_TOLERANCE:
-        found.append(warn("efficiency-off-estimate", s.efficiency, estimate, "fraction"))
+    if full_load and s.efficiency < estimate - EFFICIENCY_TOLERANCE:
+        found.append(warn("efficiency-below-estimate", s.efficiency, estimate, "fraction"))
     return found
 
 
