@@ -10,6 +10,7 @@ from typing import Annotated, Any, TypeVar
 import typer
 
 from partpick.errors import ImportInterrupted, PartpickError
+from partpick.render.safe_text import plain_text
 
 F = TypeVar("F", bound=Callable[..., Any])
 
@@ -37,8 +38,8 @@ def friendly_errors(command: F) -> F:
     def wrapper(*args: Any, **kwargs: Any) -> Any:
         try:
             return command(*args, **kwargs)
-        except PartpickError as exc:
-            typer.echo(f"error: {exc}", err=True)
+        except PartpickError as exc:  # its text may quote a file's bytes: no escapes
+            typer.echo(f"error: {plain_text(exc)}", err=True)
             raise typer.Exit(exc.exit_code) from None
         except ImportInterrupted as exc:
             typer.echo(f"error: {exc}", err=True)

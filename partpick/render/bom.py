@@ -10,7 +10,6 @@ from __future__ import annotations
 from rich import box
 from rich.console import Console, Group
 from rich.panel import Panel
-from rich.table import Table
 from rich.text import Text
 
 from partpick.bom import Bom, BomLine
@@ -23,6 +22,7 @@ from partpick.render.console import (
     STYLE_UNVERIFIED,
 )
 from partpick.render.pick import check_sentence
+from partpick.render.safe_text import Table
 from partpick.screening.checks import Check
 from partpick.units import format_eng
 
@@ -169,7 +169,7 @@ def _spec_panel(bom: Bom) -> Panel:
             f"  round {r.number}: currents at {r.efficiency_used:.3f} → estimated "
             f"{r.efficiency_estimated:.3f} ({sum(r.losses_w.values()):.3f} W lost)"
         )
-    return Panel("\n".join(lines), title="bill of materials", title_align="left")
+    return Panel(Text("\n".join(lines)), title="bill of materials", title_align="left")
 
 
 def _lines_table(bom: Bom) -> Table:

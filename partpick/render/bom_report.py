@@ -18,6 +18,7 @@ from partpick.render.bom import (
     price,
 )
 from partpick.render.exports import csv_text, json_text, markdown_table
+from partpick.render.safe_text import markdown_text
 from partpick.render.stress import GROUP_TITLES, format_figure_value
 from partpick.screening.checks import Outcome
 
@@ -128,9 +129,9 @@ def bom_json(bom: Bom) -> str:
 def bom_markdown(bom: Bom, plot_file: str | None = None) -> str:
     """Return a Markdown design-review report: spec, stresses, BOM, notes, losses, cautions."""
     spec = bom.spec
-    out = [f"# Design review: {spec.name or 'boost stage'}", ""]
+    out = [f"# Design review: {markdown_text(spec.name) or 'boost stage'}", ""]
     if spec.notes:
-        out += [spec.notes, ""]
+        out += [markdown_text(spec.notes), ""]
     out += ["## Specification", "", markdown_table(("key", "value"), _spec_rows(bom)), ""]
     out += [
         "## Worst-case stresses",
@@ -151,18 +152,18 @@ def bom_markdown(bom: Bom, plot_file: str | None = None) -> str:
     for line in bom.lines:
         out.append(f"### {line.designator} ({line.role})")
         out.append("")
-        out += [f"- {note}" for note in line_notes(line, bom.profile.name)]
+        out += [f"- {markdown_text(note)}" for note in line_notes(line, bom.profile.name)]
         out.append("")
     out += ["## Losses and efficiency", "", markdown_table(("item", "value"), _loss_rows(bom)), ""]
     out += _verification_markdown(bom, plot_file)
-    out += ["## Cautions", ""] + [f"- {c.text}" for c in bom.cautions] + [""]
+    out += ["## Cautions", ""] + [f"- {markdown_text(c.text)}" for c in bom.cautions] + [""]
     return "\n".join(out)
 
 
 def _verification_markdown(bom: Bom, plot_file: str | None) -> list[str]:
     out = ["## Verification", ""]
     if bom.verification is None:
-        return out + [bom.verification_note or "not verified", ""]
+        return out + [markdown_text(bom.verification_note or "not verified"), ""]
     from partpick.render.verify import warning_sentence
 
     result = bom.verification
@@ -189,7 +190,7 @@ def _verification_markdown(bom: Bom, plot_file: str | None) -> list[str]:
             ("Vin", "Iout", "mode", "duty", "ripple p-p", "iL min", "iL max", "efficiency"), rows
         )
     )
-    out += [f"- {warning_sentence(w)}" for w in result.warnings]
+    out += [f"- {markdown_text(warning_sentence(w))}" for w in result.warnings]
     if plot_file:
         out += ["", f"![steady-state waveforms and efficiency]({plot_file})"]
     return out + [""]

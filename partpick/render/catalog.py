@@ -14,12 +14,13 @@ from rich import box
 from rich.console import Console
 from rich.markup import escape
 from rich.progress import BarColumn, DownloadColumn, Progress, TextColumn, TimeRemainingColumn
-from rich.table import Table
+from rich.text import Text
 
 from partpick.fields import KIND_FIELDS, LOSS_MODEL_FIELDS, Field, fields_of
 from partpick.outputs import write_output
 from partpick.render.console import STYLE_FAIL, STYLE_HEADING, STYLE_MUTED, STYLE_UNVERIFIED
 from partpick.render.exports import json_text, tidy_number
+from partpick.render.safe_text import Table
 from partpick.units import format_eng
 
 if TYPE_CHECKING:  # the catalog core pulls in pandas and SQLAlchemy; only commands need them
@@ -52,7 +53,8 @@ def import_progress(
         def hook(step: ImportProgress) -> None:
             if step.file not in tasks:
                 name = Path(step.file).name
-                tasks[step.file] = bar.add_task(f"importing {name}", total=step.bytes_total)
+                label = f"importing {escape(name)}"
+                tasks[step.file] = bar.add_task(label, total=step.bytes_total)
             bar.update(tasks[step.file], completed=step.bytes_done)
 
         yield hook
@@ -66,8 +68,8 @@ def render_import_reports(
     for name in ("file", "kind", "rows", "added", "updated", "unchanged", "rejected"):
         table.add_column(name, justify="left" if name in ("file", "kind") else "right")
     for r in reports:
-        rejected = f"[{STYLE_FAIL}]{r.rejected}[/]" if r.rejected else "0"
-        table.add_row(escape(Path(r.file).name), r.kind, str(r.rows), str(r.added), str(r.updated),
+        rejected = Text(str(r.rejected), style=STYLE_FAIL) if r.rejected else "0"
+        table.add_row(Path(r.file).name, r.kind, str(r.rows), str(r.added), str(r.updated),
                       str(r.unchanged), rejected)  # fmt: skip
     console.print(table)
     for r in reports:
@@ -85,7 +87,8 @@ def _render_columns(console: Console, report: ImportReport) -> None:
     how = escape(f"{name} ({report.encoding}, {_delimiter_name(report)}): ")
     console.print(f"[{STYLE_MUTED}]{how}{read}[/]")
     if report.constants:
-        console.print(f"[{STYLE_MUTED}]  set from the map file: {', '.join(report.constants)}[/]")
+        constants = escape(", ".join(report.constants))
+        console.print(f"[{STYLE_MUTED}]  set from the map file: {constants}[/]")
     if report.unrecognised:
         listed = escape(", ".join(repr(h) for h in report.unrecognised))
         console.print(
@@ -107,7 +110,7 @@ def _render_rejects(console: Console, report: ImportReport, shown: int) -> None:
         table.add_column(name, justify="right" if name == "line" else "left")
     for reject in report.rejects[:shown]:
         cells = (reject.column, reject.value, reject.reason)
-        table.add_row(str(reject.line), *(escape(c) for c in cells))
+        table.add_row(str(reject.line), *cells)
     console.print(table)
     left = len(report.rejects) - shown
     if left > 0:
@@ -207,8 +210,9 @@ def render_parts_table(console: Console, kind: str, parts: Sequence[dict[str, ob
         table.add_column(column_label(f.name), justify="right" if numeric else "left")
     for part in parts:
         maker = part.get("manufacturer") or "—"
-        name = f"{escape(str(part['mpn']))}\n[{STYLE_MUTED}]{escape(str(maker))}[/]"
-        table.add_row(name, *(escape(_cell(part.get(f.name), f)) for f in fields))
+        name = Text(str(part["mpn"]))
+        name.append("\n" + str(maker), style=STYLE_MUTED)
+        table.add_row(name, *(_cell(part.get(f.name), f) for f in fields))
     console.print(table)
 
 
@@ -236,5 +240,5 @@ def render_batches(console: Console, batches: Sequence[Batch]) -> None:
     for b in batches:
         when = b.imported_at.replace("T", " ")[:16]
         counts = "/".join(map(str, (b.added, b.updated, b.unchanged, b.rejected)))
-        table.add_row(str(b.id), when, b.kind, escape(Path(b.file).name), b.sha256[:10], counts)
+        table.add_row(str(b.id), when, b.kind, Path(b.file).name, b.sha256[:10], counts)
     console.print(table)

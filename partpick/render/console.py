@@ -4,7 +4,7 @@ from __future__ import annotations
 
 import sys
 
-from rich.console import Console
+from partpick.render.safe_text import SafeConsole
 
 STYLE_PASS = "green"
 STYLE_FAIL = "red"
@@ -14,7 +14,10 @@ STYLE_HEADING = "bold"
 STYLE_MUTED = "dim"
 
 
-def make_console(file=None, width: int | None = None) -> Console:
-    """Return a console on ``file`` (stdout by default); plain text when not a terminal."""
+def make_console(file=None, width: int | None = None) -> SafeConsole:
+    """Return a console on ``file`` (stdout by default); plain text when not a terminal.
+
+    It never prints a control character from the data (see :mod:`partpick.render.safe_text`).
+    """
     target = file if file is not None else sys.stdout
-    return Console(file=target, width=width, highlight=False, soft_wrap=False)
+    return SafeConsole(file=target, width=width, highlight=False, soft_wrap=False)

@@ -20,6 +20,7 @@ from pathlib import Path
 import numpy as np
 
 from partpick.outputs import write_output
+from partpick.render.safe_text import markdown_text
 
 FORMULA_LEADS = ("=", "+", "-", "@", "\t", "\r")
 SIGNIFICANT_DIGITS = 12  # far beyond any catalog figure, well short of float noise
@@ -113,10 +114,11 @@ def write_atomically(path: str | Path, text: str | bytes, option: str = "--outpu
 
 
 def markdown_table(header: Sequence[str], rows: Iterable[Sequence[object]]) -> str:
-    """Return a GitHub-flavoured Markdown table; pipes inside cells are escaped."""
+    """Return a GitHub-flavoured Markdown table; every cell is escaped as text (see
+    :func:`partpick.render.safe_text.markdown_text`: pipes, line breaks, HTML, markup)."""
 
     def cell(value: object) -> str:
-        return ("" if value is None else str(value)).replace("|", "\\|").replace("\n", " ")
+        return markdown_text(value)
 
     lines = [
         "| " + " | ".join(cell(h) for h in header) + " |",

@@ -10,7 +10,6 @@ from __future__ import annotations
 import math
 
 from rich.console import Console
-from rich.table import Table
 from rich.text import Text
 
 from partpick.render.console import (
@@ -20,6 +19,7 @@ from partpick.render.console import (
     STYLE_PASS,
     STYLE_UNVERIFIED,
 )
+from partpick.render.safe_text import Table
 from partpick.screening.checks import Check, Outcome, check_load, tightest_check
 from partpick.units import format_eng
 

@@ -4,11 +4,11 @@ from __future__ import annotations
 
 from rich.console import Console, Group
 from rich.panel import Panel
-from rich.table import Table
 from rich.text import Text
 
 from partpick.design.topologies.base import GROUPS, Caution, Envelope, Figure
 from partpick.render.console import STYLE_CAUTION, STYLE_HEADING, STYLE_MUTED, STYLE_UNVERIFIED
+from partpick.render.safe_text import Table
 from partpick.units import format_eng
 
 WIDE_CONSOLE = 96

@@ -7,10 +7,10 @@ import math
 from rich import box
 from rich.console import Console
 from rich.panel import Panel
-from rich.table import Table
 from rich.text import Text
 
 from partpick.render.console import STYLE_CAUTION, STYLE_HEADING, STYLE_MUTED, STYLE_UNVERIFIED
+from partpick.render.safe_text import Table
 from partpick.units import format_eng
 from partpick.verify.stage import Stage
 from partpick.verify.sweep import PointResult, VerifyResult, VerifyWarning
