@@ -21,7 +21,7 @@ import sqlalchemy as sa
 from sqlalchemy import select
 
 from partpick.catalog import columns, merge
-from partpick.catalog.headers import ColumnMatch, MapFile, check_map_for_kind, load_map
+from partpick.catalog.headers import ColumnMatch, MapFile, Unread, check_map_for_kind, load_map
 from partpick.catalog.location import generation_key, snapshot_file
 from partpick.catalog.reading import WHOLE_ROW, PreparedFile, Reject, prepare_file, read_chunks
 from partpick.catalog.schema import catalog_meta, import_batches
@@ -72,6 +72,7 @@ class ImportReport:
     unrecognised: tuple[str, ...]
     ignored: tuple[str, ...]
     constants: tuple[str, ...]
+    unread: tuple[Unread, ...] = ()  # the unrecognised headers, with what might settle them
 
 
 ProgressHook = Callable[[ImportProgress], None]
@@ -234,7 +235,7 @@ def _import_one(
         added=counts.added, updated=counts.updated, unchanged=counts.unchanged,
         rejected=rejected, rejects=tuple(rejects), columns=item.plan.matches,
         unrecognised=item.plan.unrecognised, ignored=item.plan.ignored,
-        constants=tuple(item.constants),
+        constants=tuple(item.constants), unread=item.plan.unread,
     )  # fmt: skip
 
 

@@ -24,6 +24,7 @@ from partpick.render.safe_text import Table
 from partpick.units import format_eng
 
 if TYPE_CHECKING:  # the catalog core pulls in pandas and SQLAlchemy; only commands need them
+    from partpick.catalog.headers import Unread
     from partpick.catalog.importer import ImportProgress, ImportReport, Reject
     from partpick.catalog.store import Batch
 
@@ -94,10 +95,30 @@ def _render_columns(console: Console, report: ImportReport) -> None:
         console.print(
             f"[{STYLE_UNVERIFIED}]  unrecognised columns, kept as extra data: {listed}[/]"
         )
+    for hint in unread_hints(report.unread):
+        console.print(f"[{STYLE_UNVERIFIED}]    {escape(hint)}[/]")
     if report.ignored:
         console.print(
             f"[{STYLE_MUTED}]  ignored by the map file: {escape(', '.join(report.ignored))}[/]"
         )
+
+
+def unread_hints(unread: Sequence[Unread]) -> list[str]:
+    """Return one sentence per unread header that might be a field, with the map-file line."""
+    hints = []
+    for u in unread:
+        if not u.candidates:
+            continue
+        if len(u.candidates) > 1:
+            what = f"{u.header!r} could be {' or '.join(u.candidates)}."
+        elif "already" in u.reason:
+            what = f"{u.header!r} also reads as {u.candidates[0]}; {u.reason}."
+        elif "close" in u.reason:
+            what = f"{u.header!r}: did you mean {u.candidates[0]}?"
+        else:
+            what = f"{u.header!r} looks like {u.candidates[0]} but was not read: {u.reason}."
+        hints.append(f"{what} To read it, add {u.map_line} under [columns] in a map file.")
+    return hints
 
 
 def _delimiter_name(report: ImportReport) -> str:
