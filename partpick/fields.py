@@ -1073,7 +1073,14 @@ KIND_FIELDS: dict[str, tuple[Field, ...]] = {
             "F",
             "junction capacitance (energy-equivalent over the blocking voltage)",
             positive=True,
-            synonyms=("Junction Capacitance", "Cj", "Diode Capacitance"),
+            synonyms=(
+                "Junction Capacitance",
+                "Cj",
+                "Diode Capacitance",
+                "C_j",
+                "Total Capacitance",
+                "Capacitance",
+            ),
         ),
         Field(
             "ir_a",
@@ -1081,7 +1088,18 @@ KIND_FIELDS: dict[str, tuple[Field, ...]] = {
             "A",
             "reverse leakage current at the rated reverse voltage, at ir_tj_degc",
             positive=True,
-            synonyms=("Reverse Leakage Current", "Ir", "IR", "Current - Reverse Leakage @ Vr"),
+            synonyms=(
+                "Reverse Leakage Current",
+                "Ir",
+                "IR",
+                "Current - Reverse Leakage @ Vr",
+                "Reverse Current",
+                "Leakage Current",
+                "Reverse Leakage",
+                "I_R",
+                "Reverse Current IR",
+                "Current - Reverse Leakage",
+            ),
         ),
         Field(
             "ir_tj_degc",
@@ -1370,6 +1388,24 @@ AMBIGUOUS_WORDINGS: dict[str, dict[str, tuple[str, ...]]] = {
 def ambiguous_wordings(kind: str) -> dict[str, tuple[str, ...]]:
     """Return wording -> the fields it might name, for the wordings of ``kind`` never read."""
     return AMBIGUOUS_WORDINGS.get(kind, {})
+
+
+# A condition that changes the figure: capacitance "@ 25 V" may be the capacitance at that
+# DC bias, not the nominal one measured at a small AC level.
+_CONDITION_ALTERNATIVES: dict[tuple[str, str], tuple[re.Pattern[str], str]] = {
+    ("capacitor", "capacitance_f"): (
+        re.compile(r"\d\s*[kmuµ]?v(?:dc)?\b|\bbias\b", re.IGNORECASE),
+        "capacitance_at_bias_f",
+    ),
+}
+
+
+def condition_alternative(kind: str, name: str, condition: str) -> str | None:
+    """Return the field a header of field ``name`` may mean under ``condition``, if any."""
+    entry = _CONDITION_ALTERNATIVES.get((kind, name))
+    if entry is None or not condition or not entry[0].search(condition):
+        return None
+    return entry[1] if any(f.name == entry[1] for f in fields_of(kind)) else None
 
 
 def fields_of(kind: str) -> tuple[Field, ...]:

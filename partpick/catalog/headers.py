@@ -41,7 +41,15 @@ from partpick.catalog.wording import (
     wording_keys,
 )
 from partpick.errors import CatalogFormatError, MapFileError, UnitError
-from partpick.fields import KINDS, OTHER, Field, ambiguous_wordings, fields_of, fold_text
+from partpick.fields import (
+    KINDS,
+    OTHER,
+    Field,
+    ambiguous_wordings,
+    condition_alternative,
+    fields_of,
+    fold_text,
+)
 from partpick.units import dimension_name, unit_multiplier
 
 IGNORE = "ignore"
@@ -311,6 +319,9 @@ def _match_one(header: str, index: WordingIndex) -> tuple[Field, str, tuple, str
         f = index.fields[next(iter(names))]
         if wording.minimum and f.unit == "degC":
             return _unread(header, (f.name,), "a minimum, and this field is the maximum")
+        other = condition_alternative(index.kind, f.name, wording.condition)
+        if other is not None:
+            return _unread(header, (f.name, other), "its condition may make it " + other)
         if loose_units and not _units_fit(f, loose_units):
             return _unread(header, (f.name,), "its unit word does not fit this field")
         return f, how, wording.units + loose_units, wording.condition
@@ -329,6 +340,9 @@ def _lookup(wording: Wording, index: WordingIndex) -> tuple[frozenset[str], str,
     keys = index.keys
     if "f:" + wording.folded in keys:
         return keys["f:" + wording.folded], "synonym", ()
+    names = _segment_fields(wording.with_condition, keys)
+    if names:
+        return names, "meaning", ()
     whole = wording.whole
     names = _segment_fields(whole, keys)
     if names:

@@ -113,6 +113,20 @@ class Wording:
     minimum: bool
 
     @property
+    def condition_words(self) -> frozenset[str]:
+        """Return the spelled-out words of the condition ("@ DC Bias" gives {"bias"})."""
+        return _segment(self.condition.replace("@", " "), {"minimum": False}).words
+
+    @property
+    def with_condition(self) -> Segment | None:
+        """Return the whole wording with its condition words, or None without any."""
+        extra = self.condition_words
+        if not extra:
+            return None
+        whole = self.whole
+        return Segment(whole.words | extra, "", whole.unit_words)
+
+    @property
     def whole(self) -> Segment:
         """Return every segment's words and symbols as one segment."""
         words = frozenset().union(*(s.words for s in self.segments))
@@ -139,6 +153,7 @@ def parse_wording(header: str) -> Wording:
     text = header.replace("\u00a0", " ").strip()
     text = text.replace("Θ", "θ").replace("ϑ", "θ").replace("θ", "theta")
     text = text.replace("ω", "Ω").replace("\u039c", "µ")  # an Ω or µ put in another case
+    text = text.replace("α", " alpha ").replace("β", " beta ")
     text = text.replace("#", " no ")
     units: list[str] = []
     conditions: list[str] = []
@@ -249,9 +264,10 @@ def segment_keys(segment: Segment) -> tuple[str, ...]:
 def wording_keys(text: str) -> tuple[str, ...]:
     """Return the keys under which a data-dictionary wording is indexed."""
     wording = parse_wording(text)
-    whole = wording.whole
     keys = ["f:" + wording.folded] if wording.folded else []
-    keys += segment_keys(whole)
+    # a wording with a condition in words ("Capacitance @ DC Bias") is indexed with it, so
+    # it does not take the place of the plain wording ("Capacitance")
+    keys += segment_keys(wording.with_condition or wording.whole)
     return tuple(dict.fromkeys(keys))
 
 
