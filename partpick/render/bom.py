@@ -276,12 +276,20 @@ def _render_verification(bom: Bom, console: Console) -> None:
         if bom.verification_note:
             console.print(Text(bom.verification_note, style=STYLE_UNVERIFIED))
         return
-    from partpick.render.verify import points_table, warning_sentence
+    from partpick.render.verify import (
+        not_included_lines,
+        points_table,
+        render_ratings,
+        warning_sentence,
+    )
 
     result = bom.verification
     console.print(
         Text("verification: exact steady state of the chosen set, regulated", style=STYLE_HEADING)
     )
     console.print(points_table(result))
+    for line in not_included_lines(result.points):
+        console.print(Text(line, style=STYLE_UNVERIFIED))
+    render_ratings(result, console)
     for warning in result.warnings:
         console.print(Text(f"• {warning_sentence(warning)}", style=STYLE_UNVERIFIED))

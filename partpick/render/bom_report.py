@@ -164,7 +164,7 @@ def _verification_markdown(bom: Bom, plot_file: str | None) -> list[str]:
     out = ["## Verification", ""]
     if bom.verification is None:
         return out + [markdown_text(bom.verification_note or "not verified"), ""]
-    from partpick.render.verify import warning_sentence
+    from partpick.render.verify import RULE_TITLES, not_included_lines, warning_sentence
 
     result = bom.verification
     out += [
@@ -181,7 +181,7 @@ def _verification_markdown(bom: Bom, plot_file: str | None) -> list[str]:
             eng(p.state.vout_ripple_v, "V"),
             eng(p.state.il_min_a, "A"),
             eng(p.state.il_max_a, "A"),
-            percent(p.state.efficiency, 1),
+            ("≤ " if p.state.efficiency_is_upper_bound else "") + percent(p.state.efficiency, 1),
         ]
         for p in result.points
     ]
@@ -190,6 +190,13 @@ def _verification_markdown(bom: Bom, plot_file: str | None) -> list[str]:
             ("Vin", "Iout", "mode", "duty", "ripple p-p", "iL min", "iL max", "efficiency"), rows
         )
     )
+    out += [f"- {markdown_text(line)}" for line in not_included_lines(result.points)]
+    out += [
+        f"- rating exceeded at {eng(v.vin_v, 'V')} in, {eng(v.iout_a, 'A')} out: "
+        f"{RULE_TITLES.get(v.rule, v.rule)}, {v.role} {markdown_text(v.part)}: "
+        f"{v.value:.4g} vs {v.limit:.4g} {'°C' if v.unit == 'degC' else v.unit}"
+        for v in result.violations
+    ]
     out += [f"- {markdown_text(warning_sentence(w))}" for w in result.warnings]
     if plot_file:
         out += ["", f"![steady-state waveforms and efficiency]({plot_file})"]

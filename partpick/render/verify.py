@@ -9,7 +9,13 @@ from rich.console import Console
 from rich.panel import Panel
 from rich.text import Text
 
-from partpick.render.console import STYLE_CAUTION, STYLE_HEADING, STYLE_MUTED, STYLE_UNVERIFIED
+from partpick.render.console import (
+    STYLE_CAUTION,
+    STYLE_FAIL,
+    STYLE_HEADING,
+    STYLE_MUTED,
+    STYLE_UNVERIFIED,
+)
 from partpick.render.safe_text import Table
 from partpick.units import format_eng
 from partpick.verify.stage import Stage
@@ -63,11 +69,15 @@ def points_table(result: VerifyResult) -> Table:
 
 
 def _milliwatts(value_w: float) -> str:
-    return f"{value_w * 1e3:.3g}"
+    milliwatts = value_w * 1e3
+    return f"{milliwatts:.0f}" if abs(milliwatts) >= 999.5 else f"{milliwatts:.3g}"
 
 
 def losses_table(points: tuple[PointResult, ...]) -> Table:
-    """Return the loss of each element at each operating point, in mW (plain numbers)."""
+    """Return the loss of each term at each operating point, in mW (plain numbers).
+
+    A term left out for want of data shows "—", never a zero that reads as measured.
+    """
     table = Table(
         box=box.SIMPLE_HEAD, header_style=STYLE_HEADING, pad_edge=False, collapse_padding=True
     )
@@ -77,12 +87,16 @@ def losses_table(points: tuple[PointResult, ...]) -> Table:
         table.add_column(LOSS_TITLES[key], justify="right", no_wrap=True)
     table.add_column("Total", justify="right", no_wrap=True)
     for item in points:
-        cells = [_milliwatts(item.state.losses_w[key]) for key in LOSS_KEYS]
+        missing = {gap.term for gap in item.state.not_included}
+        cells = [
+            "—" if key in missing else _milliwatts(item.state.losses_w[key]) for key in LOSS_KEYS
+        ]
+        total = _milliwatts(item.state.total_loss_w)
         table.add_row(
             format_eng(item.point.vin_v, "V"),
             format_eng(item.point.iout_a, "A"),
             *cells,
-            _milliwatts(item.state.total_loss_w),
+            f"≥ {total}" if missing else total,
         )
     return table
 
@@ -149,6 +163,64 @@ def not_included_lines(points: tuple[PointResult, ...]) -> list[str]:
     return [f"not included: {text}" for text in seen.values()]
 
 
+RULE_TITLES = {
+    "output-voltage": "output peak vs capacitor voltage (derated)",
+    "hazard-voltage": "output peak above the 60 V DC hazard level",
+    "drain-voltage": "switch node peak vs VDS (derated)",
+    "reverse-voltage": "diode reverse voltage vs VRRM (derated)",
+    "saturation": "inductor peak at L·(1 − tol) vs Isat (derated)",
+    "switch-thermal": "switch junction at the hottest ambient",
+    "diode-thermal": "diode junction at the hottest ambient",
+    "thermal-runaway": "diode leakage runs away: no steady junction temperature",
+}
+
+
+def _figure_text(value: float, unit: str) -> str:
+    if unit == "degC":
+        return "no steady value" if math.isinf(value) else f"{value:.1f} °C"
+    return format_eng(value, unit)
+
+
+def violations_table(result: VerifyResult) -> Table:
+    """Return one row per rating exceeded: point, part, check, value and limit."""
+    table = Table(
+        box=box.SIMPLE_HEAD, header_style=STYLE_HEADING, pad_edge=False, collapse_padding=True
+    )
+    for title in ("Vin", "Iout", "part", "check", "value", "limit"):
+        justify = "left" if title in ("part", "check") else "right"
+        table.add_column(title, justify=justify, no_wrap=title != "check")
+    for v in result.violations:
+        table.add_row(
+            format_eng(v.vin_v, "V"),
+            format_eng(v.iout_a, "A"),
+            f"{v.role} {v.part}",
+            RULE_TITLES.get(v.rule, v.rule),
+            _figure_text(v.value, v.unit),
+            _figure_text(v.limit, v.unit),
+            style=STYLE_FAIL,
+        )
+    return table
+
+
+def render_ratings(result: VerifyResult, console: Console) -> None:
+    """Print the rating violations (or that there are none) and the checks not made."""
+    if not result.ratings_checked:
+        return
+    if result.violations:
+        console.print(Text(f"Ratings exceeded ({len(result.violations)})", style=STYLE_FAIL))
+        console.print(violations_table(result))
+    else:
+        console.print(Text("Ratings: no violation at any point.", style=STYLE_MUTED))
+    for gap in result.unchecked:
+        console.print(
+            Text(
+                f"not checked: {RULE_TITLES.get(gap.rule, gap.rule)}: no {gap.figure} for "
+                f"{gap.role} {gap.part}",
+                style=STYLE_UNVERIFIED,
+            )
+        )
+
+
 def render_verify(result: VerifyResult, console: Console) -> None:
     """Print the verification: stage, points, losses and a panel of warnings."""
     console.print(stage_summary(result.stage))
@@ -176,6 +248,7 @@ def render_verify(result: VerifyResult, console: Console) -> None:
                 style=STYLE_MUTED,
             )
         )
+    render_ratings(result, console)
     for note in result.stage.notes:
         console.print(Text(f"note: {note}", style=STYLE_MUTED))
     if result.warnings:

@@ -17,6 +17,7 @@ from typing import Any
 import numpy as np
 
 from partpick.errors import NotFoundError, ParameterError
+from partpick.verify.ratings import ratings_from_parts
 from partpick.verify.stage import ROLES, stage_from_parts
 from partpick.verify.sweep import VerifyResult, default_points, verify_design
 
@@ -164,6 +165,7 @@ def verify_selection(
         duty=duty,
         efficiency_estimate=efficiency,
         ccm_assumed_down_to_a=_ccm_floor(spec),
+        ratings=ratings_from_parts(spec, parts, profile),
     )
 
 

@@ -17,6 +17,14 @@ import numpy as np
 
 from partpick.errors import ParameterError
 from partpick.verify.orbit import MODE_CCM, MODE_DCM
+from partpick.verify.ratings import (
+    Ratings,
+    Unchecked,
+    Violation,
+    point_violations,
+    ratings_from_parts,
+    unchecked_ratings,
+)
 from partpick.verify.stage import Stage, stage_from_parts
 from partpick.verify.steady_state import SteadyState, sample_segment, steady_state
 
@@ -120,7 +128,9 @@ class VerifyResult:
     regulated: bool
     points: tuple[PointResult, ...]
     warnings: tuple[VerifyWarning, ...]
-    violations: tuple = ()
+    violations: tuple[Violation, ...] = ()
+    unchecked: tuple[Unchecked, ...] = ()
+    ratings_checked: bool = False
 
     def worst_point(self) -> PointResult:
         """Return the point with the largest output ripple (the one to look at first)."""
@@ -131,6 +141,7 @@ class VerifyResult:
             "points": [p.to_dict() for p in self.points],
             "warnings": [w.to_dict() for w in self.warnings],
             "violations": [v.to_dict() for v in self.violations],
+            "unchecked": [u.to_dict() for u in self.unchecked],
             "regulated": self.regulated,
             "duty": self.duty,
             "vout_v": self.vout_v,
@@ -170,6 +181,7 @@ def verify_design(
     duty: float | None = None,
     efficiency_estimate: float | None = None,
     ccm_assumed_down_to_a: float | None = None,
+    ratings: Ratings | None = None,
 ) -> VerifyResult:
     """Return the steady state of ``stage`` at each point, with the warnings.
 
@@ -179,7 +191,8 @@ def verify_design(
     points more than :data:`EFFICIENCY_TOLERANCE` below it are warned about (the design's
     currents were then underestimated).
     ``ccm_assumed_down_to_a`` is the lightest load at which the design assumed CCM (default
-    the full load ``spec.iout_a``).
+    the full load ``spec.iout_a``). ``ratings`` (of :mod:`partpick.verify.ratings`) checks
+    every point against the parts' derated ratings; without it no rating is checked.
     """
     if duty is not None:
         if not 0.0 < duty < 1.0:
@@ -190,14 +203,16 @@ def verify_design(
     chosen = tuple(points) if points is not None else default_points(spec)
     estimate = spec.efficiency if efficiency_estimate is None else float(efficiency_estimate)
     ccm_floor = spec.iout_a if ccm_assumed_down_to_a is None else ccm_assumed_down_to_a
-    results = []
+    results, violations = [], []
+    target = {"vout_v": spec.vout_v} if regulated else {"duty": duty}
     for point in chosen:
-        load_ohm = spec.vout_v / point.iout_a
-        if regulated:
-            state = steady_state(stage, point.vin_v, load_ohm, vout_v=spec.vout_v)
-        else:
-            state = steady_state(stage, point.vin_v, load_ohm, duty=duty)
+        state = steady_state(stage, point.vin_v, spec.vout_v / point.iout_a, **target)
         results.append(PointResult(point, state))
+        if ratings is not None:
+            violations += point_violations(
+                ratings, stage, state, point.iout_a, vout_v=target.get("vout_v"),
+                duty=target.get("duty"),
+            )  # fmt: skip
     warnings = [
         w for r in results for w in _point_warnings(spec, r, regulated, estimate, ccm_floor)
     ]
@@ -211,6 +226,9 @@ def verify_design(
         regulated=regulated,
         points=tuple(results),
         warnings=tuple(warnings),
+        violations=tuple(violations),
+        unchecked=unchecked_ratings(ratings) if ratings is not None else (),
+        ratings_checked=ratings is not None,
     )
 
 
@@ -266,7 +284,10 @@ def verify_parts(
     )
     vins = vin_points if vin_points is not None else (spec.vin_min_v, spec.vin_max_v)
     points = [OperatingPoint(float(v), spec.iout_a) for v in vins]
-    return verify_design(spec, stage, points, efficiency_estimate=efficiency_estimate)
+    ratings = ratings_from_parts(spec, parts, profile) if profile is not None else None
+    return verify_design(
+        spec, stage, points, efficiency_estimate=efficiency_estimate, ratings=ratings
+    )
 
 
 @dataclass(frozen=True)
@@ -331,6 +352,7 @@ __all__ = [
     "PointResult",
     "VerifyResult",
     "VerifyWarning",
+    "Violation",
     "Waveforms",
     "default_points",
     "efficiency_curves",
