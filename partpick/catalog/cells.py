@@ -2,7 +2,9 @@
 
 Catalog columns repeat heavily (a thousand parts share a dozen inductance values), so each
 column is factorised, each distinct text is read once by :mod:`partpick.units` or the
-field's aliases, and the results are spread back with an array take. No per-cell Python loop.
+field's aliases, and the results are spread back with an array take. Only the factorising
+touches every cell (one dict lookup each, as fast as pandas' hash table here, measured on
+100,000 inductors). Standard library and numpy only: a small import never loads pandas.
 """
 
 from __future__ import annotations
@@ -14,7 +16,6 @@ import re
 from dataclasses import dataclass
 
 import numpy as np
-import pandas as pd
 
 from partpick.errors import UnitError
 from partpick.fields import Field, fold_text
@@ -53,14 +54,26 @@ class ColumnValues:
     reasons: np.ndarray  # object per cell: None or why the cell is not a value
 
 
+def factorize(cells) -> tuple[np.ndarray, list]:
+    """Return (code per cell, distinct cells in order of first appearance).
+
+    ``cells`` is any sequence of cell texts (None for a cell a short row lacks).
+    """
+    index: dict = {}
+    codes = np.fromiter(
+        (index.setdefault(cell, len(index)) for cell in cells), dtype=np.intp, count=len(cells)
+    )
+    return codes, list(index)
+
+
 def convert_column(
-    cells: pd.Series, f: Field, *, scale: float = 1.0, decimal_comma: bool = False
+    cells, f: Field, *, scale: float = 1.0, decimal_comma: bool = False
 ) -> ColumnValues:
-    """Return the typed values of ``cells`` (text) for field ``f``."""
+    """Return the typed values of ``cells`` (a sequence of texts) for field ``f``."""
     if f.type == "text":
         return _texts(cells)
-    codes, uniques = pd.factorize(cells, use_na_sentinel=False)
-    texts = ["" if u is None else str(u) for u in uniques.tolist()]
+    codes, uniques = factorize(cells)
+    texts = ["" if u is None or u != u else str(u) for u in uniques]
     if f.type in ("float", "int"):
         parsed, reasons = _numbers(texts, f, scale, decimal_comma)
     elif f.type == "enum":
@@ -103,7 +116,7 @@ def _simple_numbers(
     numbers = np.array([float(m[1]) if m else math.nan for m in matches], dtype=float)
     suffixes = _object_array([m[2].rstrip() if m else "" for m in matches])
     factors = np.full(len(texts), math.nan)
-    for suffix in pd.unique(suffixes[~np.isnan(numbers)]):
+    for suffix in dict.fromkeys(suffixes[~np.isnan(numbers)].tolist()):
         if suffix == "" and f.unit == "fraction":
             continue  # a bare tolerance needs parse_quantity's ambiguity check
         try:
@@ -168,18 +181,17 @@ def _bools(texts: list[str], f: Field) -> tuple[np.ndarray, list]:
     return parsed, reasons
 
 
-def _texts(cells: pd.Series) -> ColumnValues:
+def _texts(cells) -> ColumnValues:
     """Return a text column stripped, None where it holds a missing marker.
 
     Python's own ``str.strip`` mapped over the cells: pandas' ``.str.strip`` costs several
-    times as much per cell. Cells that are not text (the NaN of a short row) are missing.
+    times as much per cell. Cells that are not text (None, or NaN) are missing.
     """
-    raw = cells.to_numpy(dtype=object)
-    absent = pd.isna(raw)
-    if absent.any():
-        raw = np.where(absent, "", raw)
-    values = _object_array(list(map(str.strip, raw)))
-    missing = absent | pd.Series(values, copy=False).isin(_MISSING_SPELLINGS).to_numpy()
+    raw = [cell if isinstance(cell, str) else None for cell in cells]
+    absent = np.fromiter((cell is None for cell in raw), dtype=bool, count=len(raw))
+    values = _object_array([cell.strip() if cell is not None else "" for cell in raw])
+    spelled = np.fromiter((v in _MISSING_SPELLINGS for v in values), dtype=bool, count=len(raw))
+    missing = absent | spelled
     values[missing] = None
     count = len(values)
     return ColumnValues(values, np.zeros(count, dtype=bool), np.full(count, None, dtype=object))
@@ -192,19 +204,21 @@ def _object_array(items: list) -> np.ndarray:
     return array
 
 
-def extra_json(frame: pd.DataFrame, columns: list[tuple[str, object]]) -> np.ndarray:
+def extra_json(frame, columns: list[tuple[str, object]], rows: int) -> np.ndarray:
     """Return, per row, JSON text of the unrecognised ``columns`` ((header, frame key) pairs).
+
+    ``frame`` maps each key to the column's cells; ``rows`` is the number of rows.
 
     None for every row when there are no such columns. Each distinct cell is encoded once,
     with its key and the separators around it, so a row's text is one array take per column
     and one concatenation per further column.
     """
     if not columns:
-        return np.full(len(frame), None, dtype=object)
+        return np.full(rows, None, dtype=object)
     joined: np.ndarray | None = None
     last = len(columns) - 1
     for index, (header, key) in enumerate(columns):
-        codes, uniques = pd.factorize(frame[key], use_na_sentinel=False)
+        codes, uniques = factorize(frame[key])
         before = ("{" if index == 0 else ", ") + json.dumps(header, ensure_ascii=False) + ": "
         after = "}" if index == last else ""
         encoded = _object_array([before + _json_cell(u) + after for u in uniques])[codes]

@@ -2,18 +2,25 @@
 
 Line numbers follow the file: the header is line 1 (after any ``skip_rows``), the first part
 line 2. They count CSV records, so a quoted cell spanning two lines counts once.
+
+Two readers give the same rows: a file up to :data:`SMALL_FILE_BYTES` is read with the
+standard ``csv`` module, so importing a few parts never loads pandas (about a third of a
+second of start-up); a larger one with pandas' C parser in chunks, which is faster per row.
+Both hand :func:`_validate` the same columns (object arrays of cell texts, "" for the cells
+a short row lacks), and tests/test_import_readers.py checks they agree file by file.
 """
 
 from __future__ import annotations
 
+import csv
 import re
 import warnings
 from collections.abc import Iterator
 from dataclasses import dataclass
 from pathlib import Path
+from typing import TYPE_CHECKING
 
 import numpy as np
-import pandas as pd
 
 from partpick.catalog.cells import ColumnValues, convert_column, extra_json
 from partpick.catalog.headers import ColumnMatch, HeaderPlan, MapFile, match_headers
@@ -22,8 +29,15 @@ from partpick.errors import CatalogFormatError, MapFileError
 from partpick.fields import KIND_FIELDS, Field, field_of
 from partpick.units import unit_multiplier
 
+if TYPE_CHECKING:
+    import pandas as pd
+
 _BAD_LINE_RE = re.compile(r"Skipping line (\d+): expected (\d+) fields, saw (\d+)")
 WHOLE_ROW = "(whole row)"
+TOO_MANY_FIELDS = "this line has more fields than the header"
+# Files up to this size are read by the csv module (no pandas import); measured break-even:
+# the csv module costs about 3 µs more per row, pandas about 0.2 s to import.
+SMALL_FILE_BYTES = 1 << 20
 
 
 @dataclass(frozen=True)
@@ -100,6 +114,8 @@ def prepare_file(path: str | Path, kind: str, mapping: MapFile | None) -> Prepar
 
 
 def _open_reader(source, fmt: FileFormat, skip_rows: int, **options):
+    import pandas as pd
+
     return pd.read_csv(
         source,
         sep=fmt.delimiter,
@@ -118,17 +134,31 @@ def _open_reader(source, fmt: FileFormat, skip_rows: int, **options):
 
 def _read_header(name: str, fmt: FileFormat, skip_rows: int) -> tuple[str, ...]:
     try:
+        with open(name, encoding=fmt.encoding, newline="") as handle:
+            records = csv.reader(handle, delimiter=fmt.delimiter, strict=True)
+            for _ in range(skip_rows):
+                next(records, None)
+            first = next(records, None)
+    except csv.Error:  # pandas reads what the csv module refuses, or says why it cannot
+        first = _pandas_header(name, fmt, skip_rows)
+    if not first:  # no record, or a blank first line (as pandas reads it: no columns)
+        raise CatalogFormatError(name, "no header row: the file has no lines to read")
+    cells = [str(cell).strip() for cell in first]
+    return _unique_names([cell or f"(column {i + 1})" for i, cell in enumerate(cells)])
+
+
+def _pandas_header(name: str, fmt: FileFormat, skip_rows: int) -> list[str] | None:
+    import pandas as pd
+
+    try:
         with warnings.catch_warnings():
             warnings.simplefilter("ignore", pd.errors.ParserWarning)
             first = _open_reader(name, fmt, skip_rows, nrows=1)
     except pd.errors.EmptyDataError:
-        raise CatalogFormatError(name, "no header row: the file has no lines to read") from None
+        return None
     except (pd.errors.ParserError, UnicodeDecodeError, ValueError) as exc:
         raise CatalogFormatError(name, f"not a readable CSV file ({exc})".strip()) from None
-    if first.empty:
-        raise CatalogFormatError(name, "no header row: the file has no lines to read")
-    cells = [str(c).strip() for c in first.iloc[0].tolist()]
-    return _unique_names([cell or f"(column {i + 1})" for i, cell in enumerate(cells)])
+    return None if first.empty else first.iloc[0].tolist()
 
 
 def _unique_names(headers: list[str]) -> tuple[str, ...]:
@@ -184,9 +214,7 @@ def _constants(mapping: MapFile | None, kind: str, plan: HeaderPlan) -> dict[str
         f = field_of(kind, name)
         scale = unit_multiplier(mapping.units[name], f.unit) if name in mapping.units else 1.0
         text = str(value).lower() if isinstance(value, bool) else str(value)
-        converted = convert_column(
-            pd.Series([text], dtype=object), f, scale=scale, decimal_comma=mapping.decimal == ","
-        )
+        converted = convert_column([text], f, scale=scale, decimal_comma=mapping.decimal == ",")
         if converted.bad[0]:
             raise MapFileError(mapping.path, str(converted.reasons[0]), f"constants.{name}")
         constants[name] = converted
@@ -195,6 +223,65 @@ def _constants(mapping: MapFile | None, kind: str, plan: HeaderPlan) -> dict[str
 
 def read_chunks(item: PreparedFile, chunk_rows: int) -> Iterator[Chunk]:
     """Yield validated chunks of the file's rows; raises CatalogFormatError if it breaks midway."""
+    if item.format.size_bytes <= SMALL_FILE_BYTES:
+        records = _small_file_rows(item)
+        if records is not None:
+            yield from _small_file_chunks(item, *records, chunk_rows)
+            return
+    yield from _pandas_chunks(item, chunk_rows)
+
+
+def _small_file_rows(item: PreparedFile) -> tuple[list[list[str]], list[int]] | None:
+    """Return (rows padded to the header's width, lines of rows with too many fields).
+
+    None when the csv module (strict) refuses the file: pandas then reads it, or says why
+    it cannot (an unterminated quote, say), exactly as for a large file.
+    """
+    width = len(item.headers)
+    rows: list[list[str]] = []
+    too_long: list[int] = []
+    try:
+        with open(item.path, encoding=item.format.encoding, newline="") as handle:
+            records = csv.reader(handle, delimiter=item.format.delimiter, strict=True)
+            for _ in range(item.skip_rows + 1):  # the skipped lines, then the header
+                next(records, None)
+            for line, record in enumerate(records, start=item.skip_rows + 2):
+                if len(record) > width:
+                    too_long.append(line)
+                else:
+                    rows.append(record + [""] * (width - len(record)))
+    except csv.Error:
+        return None
+    return rows, too_long
+
+
+def _small_file_chunks(
+    item: PreparedFile, rows: list[list[str]], too_long: list[int], chunk_rows: int
+) -> Iterator[Chunk]:
+    """Validate the rows of a small file in chunks, as the pandas reader would give them."""
+    numbers = np.arange(len(rows) + len(too_long), dtype=np.int64) + item.skip_rows + 2
+    lines = np.setdiff1d(numbers, np.asarray(too_long, dtype=np.int64), assume_unique=True)
+    if rows:
+        columns = [_object_column(cells) for cells in zip(*rows, strict=True)]
+    else:
+        columns = [np.empty(0, dtype=object) for _ in item.headers]
+    for start in range(0, max(len(rows), 1), chunk_rows):
+        stop = start + chunk_rows
+        part = [column[start:stop] for column in columns]
+        chunk = _validate(item, part, lines[start:stop], item.format.size_bytes)
+        if start == 0:
+            chunk.rejects.extend(_bad_line_rejects(too_long))
+        yield chunk
+
+
+def _object_column(cells: tuple[str, ...]) -> np.ndarray:
+    column = np.empty(len(cells), dtype=object)
+    column[:] = cells
+    return column
+
+
+def _pandas_chunks(item: PreparedFile, chunk_rows: int) -> Iterator[Chunk]:
+    """Read a large file with pandas' C parser, a chunk at a time."""
     skipped: list[int] = []  # line numbers of rows pandas skipped for having too many fields
     reported = 0
     with open(item.path, "rb") as handle:
@@ -203,7 +290,8 @@ def read_chunks(item: PreparedFile, chunk_rows: int) -> Iterator[Chunk]:
         with reader:
             while (frame := _next_frame(item.name, reader, skipped)) is not None:
                 lines = _line_numbers(frame.index.to_numpy(), sorted(skipped), item)
-                chunk = _validate(item, frame.iloc[offset:], lines[offset:], handle.tell())
+                columns = [frame[i].to_numpy(dtype=object)[offset:] for i in frame.columns]
+                chunk = _validate(item, columns, lines[offset:], handle.tell())
                 offset = 0
                 chunk.rejects.extend(_bad_line_rejects(skipped[reported:]))
                 reported = len(skipped)
@@ -211,6 +299,8 @@ def read_chunks(item: PreparedFile, chunk_rows: int) -> Iterator[Chunk]:
 
 
 def _next_frame(name: str, reader, skipped: list[int]) -> pd.DataFrame | None:
+    import pandas as pd
+
     with warnings.catch_warnings(record=True) as caught:
         warnings.simplefilter("always", pd.errors.ParserWarning)
         try:
@@ -231,16 +321,15 @@ def _line_numbers(index: np.ndarray, skipped: list[int], item: PreparedFile) -> 
 
 
 def _bad_line_rejects(lines: list[int]) -> list[Reject]:
-    return [
-        Reject(line, WHOLE_ROW, "", "this line has more fields than the header") for line in lines
-    ]
+    return [Reject(line, WHOLE_ROW, "", TOO_MANY_FIELDS) for line in lines]
 
 
-def _validate(item: PreparedFile, frame: pd.DataFrame, lines: np.ndarray, done: int) -> Chunk:
-    # Short rows leave NaN in their last cells; every converter reads NaN as missing.
+def _validate(item: PreparedFile, frame: list[np.ndarray], lines: np.ndarray, done: int) -> Chunk:
+    """Return the chunk of the rows whose cells are ``frame`` (one object array per header)."""
     keep = ~_blank_rows(frame)
-    frame, lines = frame[keep], lines[keep]
-    count = len(frame)
+    if not keep.all():
+        frame, lines = [column[keep] for column in frame], lines[keep]
+    count = len(lines)
     values: dict[str, np.ndarray] = {}
     bad = np.zeros(count, dtype=bool)
     rejects: list[Reject] = []
@@ -250,13 +339,13 @@ def _validate(item: PreparedFile, frame: pd.DataFrame, lines: np.ndarray, done: 
         bad |= column.bad
         rejects.extend(_cell_rejects(frame[match.position], column, lines, match.header))
     _apply_constants(values, item, count)
-    missing_mpn = pd.isna(values["mpn"])
+    missing_mpn = _is_none(values["mpn"])
     for row in np.flatnonzero(missing_mpn & ~bad):
         rejects.append(Reject(int(lines[row]), item.mpn_header, "", "the part number is missing"))
     bad |= missing_mpn
     good = ~bad
     unrecognised = [(h, i) for i, h in enumerate(item.headers) if h in item.plan.unrecognised]
-    values["extra"] = extra_json(frame, unrecognised)
+    values["extra"] = extra_json(frame, unrecognised, count)
     values["manufacturer"] = _manufacturer(values.get("manufacturer"), count)
     if good.all():  # the common case: no copy of every column
         return Chunk(values, lines, rejects, count, done)
@@ -264,23 +353,31 @@ def _validate(item: PreparedFile, frame: pd.DataFrame, lines: np.ndarray, done: 
     return Chunk(kept, lines[good], rejects, count, done)
 
 
+def _is_none(column: np.ndarray) -> np.ndarray:
+    """Return a mask of the missing values (None) of a converted object or float column."""
+    if column.dtype.kind == "f":
+        return np.isnan(column)
+    return np.equal(column, None)
+
+
 def _manufacturer(column: np.ndarray | None, count: int) -> np.ndarray:
     """Return the manufacturer column with "" where unknown (identity needs a value)."""
     if column is None:
         return np.full(count, "", dtype=object)
-    column[pd.isna(column)] = ""
+    column[_is_none(column)] = ""
     return column
 
 
-def _blank_rows(frame: pd.DataFrame) -> np.ndarray:
+def _blank_rows(frame: list[np.ndarray]) -> np.ndarray:
     """Return a mask of empty lines; only rows whose first cell is empty are looked at whole."""
-    blank = frame.iloc[:, 0].eq("").to_numpy(copy=True)
+    blank = np.equal(frame[0], "") if frame else np.zeros(0, dtype=bool)
     if blank.any():
-        blank[blank] = frame[blank].eq("").all(axis=1).to_numpy()
+        for column in frame[1:]:
+            blank[blank] = np.equal(column[blank], "")
     return blank
 
 
-def _convert(frame: pd.DataFrame, match: ColumnMatch, item: PreparedFile) -> ColumnValues:
+def _convert(frame: list[np.ndarray], match: ColumnMatch, item: PreparedFile) -> ColumnValues:
     f = field_of(item.kind, match.field)
     return convert_column(
         frame[match.position], f, scale=match.scale, decimal_comma=item.decimal_comma
@@ -288,11 +385,10 @@ def _convert(frame: pd.DataFrame, match: ColumnMatch, item: PreparedFile) -> Col
 
 
 def _cell_rejects(
-    cells: pd.Series, column: ColumnValues, lines: np.ndarray, header: str
+    cells: np.ndarray, column: ColumnValues, lines: np.ndarray, header: str
 ) -> list[Reject]:
     rows = np.flatnonzero(column.bad)
-    raw = cells.to_numpy()
-    return [Reject(int(lines[r]), header, str(raw[r]), str(column.reasons[r])) for r in rows]
+    return [Reject(int(lines[r]), header, str(cells[r]), str(column.reasons[r])) for r in rows]
 
 
 def _apply_constants(values: dict[str, np.ndarray], item: PreparedFile, count: int) -> None:
@@ -302,4 +398,4 @@ def _apply_constants(values: dict[str, np.ndarray], item: PreparedFile, count: i
             values[name] = np.full(count, value, dtype=constant.values.dtype)
         else:
             column = values[name]
-            column[pd.isna(column)] = value
+            column[_is_none(column)] = value
