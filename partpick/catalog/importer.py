@@ -5,6 +5,11 @@ raises :class:`~partpick.errors.CatalogFormatError` (a file that cannot be read 
 :class:`~partpick.errors.StrictImportError` (``strict`` and a row was rejected). Either way,
 and on any other error or an interruption, the catalog is left exactly as it was: every file
 of one call is merged inside one transaction.
+
+An SQLite catalog file is written through the bare ``sqlite3`` driver
+(:mod:`partpick.catalog.sqlite_light`), and a small file is read without pandas
+(:mod:`partpick.catalog.reading`), so a small import loads neither pandas nor SQLAlchemy;
+other catalogs go through SQLAlchemy. The statements are the same plain SQL either way.
 """
 
 from __future__ import annotations
@@ -13,21 +18,19 @@ import contextlib
 import dataclasses
 import datetime as dt
 import gc
+import sqlite3
+import sys
 from collections.abc import Callable, Iterator, Sequence
 from dataclasses import dataclass, field
 from pathlib import Path
+from typing import TYPE_CHECKING
 
-import sqlalchemy as sa
-from sqlalchemy import select
-
-from partpick.catalog import columns, merge
+from partpick.catalog import columns, merge, sqlite_light
 from partpick.catalog.headers import ColumnMatch, MapFile, Unread, check_map_for_kind, load_map
-from partpick.catalog.location import generation_key, snapshot_file
+from partpick.catalog.location import generation_key, resolve_db_url, snapshot_file, sqlite_file
 from partpick.catalog.reading import WHOLE_ROW, PreparedFile, Reject, prepare_file, read_chunks
-from partpick.catalog.schema import catalog_meta, import_batches
 from partpick.catalog.snapshot import SnapshotBuilder, sweep_leftovers
 from partpick.catalog.spool import STDIN_NAME, spooled_inputs
-from partpick.catalog.store import bump_generation, open_engine, resolve_db_url, sqlite_file
 from partpick.errors import (
     CatalogFormatError,
     DatabaseError,
@@ -36,6 +39,9 @@ from partpick.errors import (
     StrictImportError,
 )
 from partpick.fields import KINDS
+
+if TYPE_CHECKING:
+    import sqlalchemy as sa
 
 CHUNK_ROWS = 50_000
 
@@ -110,33 +116,48 @@ def import_catalog(
 
 
 def _import_prepared(db, kind, prepared, strict, progress, chunk_rows, before_commit):
-    engine = open_engine(db)
-    builder = _snapshot_builder(db, kind, len(prepared))
-    before = _generation(engine, kind)
+    builder = None
+    before = _generation(db, kind)
     try:
-        with _cycle_collector_paused(), engine.begin() as conn:
+        with _cycle_collector_paused(), _transaction(db) as conn:
+            builder = _snapshot_builder(db, kind, len(prepared))  # once the catalog is open
             reports = [_import_one(conn, item, strict, progress, chunk_rows, builder)
                        for item in prepared]  # fmt: skip
             stamp = _stamp_after_bump(conn, kind)
             if before_commit is not None:
                 before_commit(reports)
         _refresh_snapshot(db, kind, builder, stamp)
-    except sa.exc.OperationalError as exc:  # locked by another writer, disk full, read-only
-        raise DatabaseError(resolve_db_url(db), f"cannot be written ({exc.orig})") from None
+    except _write_errors() as exc:  # locked by another writer, disk full, read-only
+        reason = getattr(exc, "orig", None) or exc
+        raise DatabaseError(resolve_db_url(db), f"cannot be written ({reason})") from None
     except KeyboardInterrupt:
-        raise ImportInterrupted(committed=_generation(engine, kind) != before) from None
+        raise ImportInterrupted(committed=_generation(db, kind) != before) from None
     finally:
         if builder is not None:
             builder.discard()
     return reports
 
 
-def _generation(engine: sa.Engine, kind: str) -> str | None:
+def _generation(db: str | None, kind: str) -> str | None:
     """Return the stored generation of ``kind`` (None if it cannot be read)."""
+    url = resolve_db_url(db)
+    path = sqlite_file(url)
+    key = generation_key(kind)
+    if path is not None:
+        try:
+            with contextlib.closing(sqlite3.connect(f"file:{path}?mode=ro", uri=True)) as conn:
+                row = conn.execute("SELECT value FROM catalog_meta WHERE key = ?", (key,))
+                return (row.fetchone() or (None,))[0]
+        except sqlite3.Error:
+            return None
+    import sqlalchemy as sa
+
+    from partpick.catalog.store import open_engine
+
     try:
-        with engine.connect() as conn:
-            return conn.execute(
-                select(catalog_meta.c.value).where(catalog_meta.c.key == generation_key(kind))
+        with open_engine(db).connect() as conn:
+            return _run(
+                conn, "SELECT value FROM catalog_meta WHERE key = :key", {"key": key}
             ).scalar_one_or_none()
     except sa.exc.SQLAlchemyError:
         return None
@@ -146,6 +167,38 @@ def _named_as_given(item: PreparedFile, given: str | Path) -> PreparedFile:
     """Return ``item`` reporting the name the user gave (not a temporary copy's)."""
     name = STDIN_NAME if str(given) == "-" else str(given)
     return item if name == item.path else dataclasses.replace(item, display=name)
+
+
+@contextlib.contextmanager
+def _transaction(db: str | None) -> Iterator:
+    """Yield the one connection and transaction of an import.
+
+    An SQLite file: a bare sqlite3 connection (no SQLAlchemy import), closed at the end.
+    Anything else (an in-memory catalog, a server): an SQLAlchemy connection from the
+    catalog's shared engine.
+    """
+    url = resolve_db_url(db)
+    path = sqlite_file(url)
+    if path is None:
+        from partpick.catalog.store import open_engine
+
+        with open_engine(db).begin() as conn:
+            yield conn
+        return
+    light = sqlite_light.connect(url, path)
+    try:
+        with light.begin():
+            yield light
+    finally:
+        light.close()
+
+
+def _write_errors() -> tuple[type[Exception], ...]:
+    """Return the exception types of a catalog that cannot be written, for either driver."""
+    errors: tuple[type[Exception], ...] = (sqlite3.OperationalError,)
+    if "sqlalchemy" in sys.modules:
+        errors += (sys.modules["sqlalchemy"].exc.OperationalError,)
+    return errors
 
 
 @contextlib.contextmanager
@@ -182,10 +235,38 @@ def _snapshot_builder(db: str | None, kind: str, files: int) -> SnapshotBuilder 
 
 def _stamp_after_bump(conn: sa.Connection, kind: str) -> tuple[str, str]:
     generation = bump_generation(conn, kind)
-    db_uuid = conn.execute(
-        select(catalog_meta.c.value).where(catalog_meta.c.key == "db_uuid")
-    ).scalar_one()
+    db_uuid = _run(conn, "SELECT value FROM catalog_meta WHERE key = 'db_uuid'").scalar_one()
     return db_uuid, str(generation)
+
+
+def bump_generation(conn: sa.Connection, kind: str) -> int:
+    """Add one to the catalog's and to ``kind``'s generation in the caller's transaction.
+
+    Returns the kind's new generation. Snapshots are stamped per kind, so importing
+    capacitors leaves the inductor snapshot fresh.
+    """
+    new_values = {}
+    for key in ("generation", generation_key(kind)):
+        current = _run(
+            conn, "SELECT value FROM catalog_meta WHERE key = :key", {"key": key}
+        ).scalar()
+        new_values[key] = int(current or 0) + 1
+        change = (
+            "INSERT INTO catalog_meta (key, value) VALUES (:key, :value)"
+            if current is None
+            else "UPDATE catalog_meta SET value = :value WHERE key = :key"
+        )
+        _run(conn, change, {"key": key, "value": str(new_values[key])})
+    return new_values[generation_key(kind)]
+
+
+def _run(conn, sql: str, parameters: dict | None = None):
+    """Run ``sql`` with named parameters (``:name``) on either kind of connection."""
+    if isinstance(conn, sqlite_light.LightConnection):
+        return conn.exec_driver_sql(sql, parameters or {})
+    import sqlalchemy as sa
+
+    return conn.execute(sa.text(sql), parameters or {})
 
 
 def _resolve_kind(kind: str | None, mapping: MapFile | None, files: Sequence) -> str:
@@ -223,11 +304,12 @@ def _import_one(
             rejects=tuple(rejects),
         )
     counts = merge.count_changes(conn, item.kind, after_id, written.changed, written.kept)
-    conn.execute(
-        import_batches.update()
-        .where(import_batches.c.id == batch_id)
-        .values(rows=written.rows, added=counts.added, updated=counts.updated,
-                unchanged=counts.unchanged, rejected=rejected)
+    _run(
+        conn,
+        "UPDATE import_batches SET rows = :rows, added = :added, updated = :updated, "
+        "unchanged = :unchanged, rejected = :rejected WHERE id = :id",
+        {"rows": written.rows, "added": counts.added, "updated": counts.updated,
+         "unchanged": counts.unchanged, "rejected": rejected, "id": batch_id},
     )  # fmt: skip
     return ImportReport(
         file=item.name, kind=item.kind, sha256=item.format.sha256, batch_id=batch_id,
@@ -317,14 +399,15 @@ def _repeat_rejects(item: PreparedFile, repeats: list) -> list[Reject]:
 
 
 def _start_batch(conn: sa.Connection, item: PreparedFile, imported_at: str) -> int:
-    result = conn.execute(
-        import_batches.insert().values(
-            file=item.display or str(Path(item.path).resolve()), sha256=item.format.sha256,
-            imported_at=imported_at, kind=item.kind, rows=0, added=0, updated=0,
-            unchanged=0, rejected=0,
-        )
+    result = _run(
+        conn,
+        "INSERT INTO import_batches (file, sha256, imported_at, kind, rows, added, updated, "
+        "unchanged, rejected) VALUES (:file, :sha256, :imported_at, :kind, 0, 0, 0, 0, 0) "
+        "RETURNING id",
+        {"file": item.display or str(Path(item.path).resolve()), "sha256": item.format.sha256,
+         "imported_at": imported_at, "kind": item.kind},
     )  # fmt: skip
-    return int(result.inserted_primary_key[0])
+    return int(result.scalar_one())
 
 
 def _refresh_snapshot(

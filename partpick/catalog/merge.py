@@ -6,25 +6,33 @@ stored part and carries the same values changes nothing. The counts come from SQ
 rows added are the new row ids, rows updated are the remaining changes. Into an empty table
 the rows go by plain multi-row INSERTs instead, and the identity index is built once at the
 end (see "bulk load" below).
+
+``conn`` is an SQLAlchemy connection or, for an SQLite file,
+:class:`~partpick.catalog.sqlite_light.LightConnection`: only plain SQL is sent, and neither
+pandas nor SQLAlchemy is imported here.
 """
 
 from __future__ import annotations
 
 import itertools
+import sqlite3
+import sys
 from collections.abc import Sequence
 from dataclasses import dataclass
+from typing import TYPE_CHECKING
 
 import numpy as np
-import pandas as pd
-import sqlalchemy as sa
 
-from partpick.catalog.schema import (
+from partpick.catalog.tables import (
     IDENTITY_KEY_ORDER,
     identity_index_name,
     stored_fields,
     table_name,
 )
 from partpick.fields import KINDS
+
+if TYPE_CHECKING:
+    import sqlalchemy as sa
 
 # The file, hash and time of a row's import are kept once, in its import_batches row.
 PROVENANCE = ("source_line", "batch_id")
@@ -76,28 +84,31 @@ def _insert_head(kind: str, batch_id: int, rows: int = 1) -> str:
 class DuplicateFinder:
     """Find rows of one file whose (manufacturer, mpn) an earlier row already had.
 
-    Inside a chunk the check is exact (pandas). Across chunks, 64-bit hashes of every kept
-    identity are remembered (8 bytes a row, so memory stays small); a hash hit is confirmed
-    against the rows this batch already wrote, so a hash collision never rejects a row.
+    Inside a chunk the check is exact (a dict of the chunk's identities). Across chunks,
+    64-bit hashes of every kept identity are remembered (8 bytes a row, so memory stays
+    small); a hash hit is confirmed against the rows this batch already wrote, so a hash
+    collision never rejects a row.
     """
 
     def __init__(self, kind: str, batch_id: int) -> None:
         self.kind = kind
         self.batch_id = batch_id
-        self._seen = np.empty(0, dtype=np.uint64)
+        self._seen = np.empty(0, dtype=np.int64)
 
     def split(
         self, conn: sa.Connection, manufacturer: np.ndarray, mpn: np.ndarray, lines: np.ndarray
     ) -> tuple[np.ndarray, list[Duplicate]]:
         """Return a keep-mask for the chunk's rows and the duplicates it found."""
-        frame = pd.DataFrame({"m": manufacturer, "p": mpn, "line": lines})
-        repeated = frame.duplicated(["m", "p"], keep="first").to_numpy()
+        identities = list(zip(manufacturer.tolist(), mpn.tolist(), strict=True))
+        first_row: dict[tuple, int] = {}
+        repeated = np.zeros(len(identities), dtype=bool)
         duplicates: list[Duplicate] = []
-        if repeated.any():
-            first = frame.groupby(["m", "p"], sort=False)["line"].transform("min").to_numpy()
-            duplicates += [Duplicate(int(lines[i]), mpn[i], int(first[i]))
-                           for i in np.flatnonzero(repeated)]  # fmt: skip
-        hashes = pd.util.hash_pandas_object(frame[["m", "p"]], index=False).to_numpy()
+        for i, identity in enumerate(identities):
+            first = first_row.setdefault(identity, i)
+            if first != i:
+                repeated[i] = True
+                duplicates.append(Duplicate(int(lines[i]), mpn[i], int(lines[first])))
+        hashes = np.fromiter(map(hash, identities), dtype=np.int64, count=len(identities))
         candidates = ~repeated & np.isin(hashes, self._seen)
         for i in np.flatnonzero(candidates):
             first_line = self._stored_line(conn, manufacturer[i], mpn[i])
@@ -242,7 +253,15 @@ def rebuild_identity_index(conn: sa.Connection, kind: str, batch_id: int) -> lis
         with conn.begin_nested():
             create_identity_index(conn, kind)
         return []
-    except sa.exc.IntegrityError:
+    except _integrity_errors():
         repeats = remove_repeats(conn, kind, batch_id)
         create_identity_index(conn, kind)
         return repeats
+
+
+def _integrity_errors() -> tuple[type[Exception], ...]:
+    """Return the exception types of a broken unique index on either kind of connection."""
+    errors: tuple[type[Exception], ...] = (sqlite3.IntegrityError,)
+    if "sqlalchemy" in sys.modules:  # an SQLAlchemy connection wraps the driver's error
+        errors += (sys.modules["sqlalchemy"].exc.IntegrityError,)
+    return errors

@@ -31,13 +31,14 @@ from sqlalchemy import (
     Text,
 )
 
-from partpick.fields import KINDS, Field, fields_of
-
-IDENTITY_COLUMNS: tuple[str, ...] = ("kind", "manufacturer", "mpn")
-# The unique index holds (mpn, manufacturer): each table holds one kind, so this is the
-# identity (kind, manufacturer, mpn); leaving the constant kind out makes the index smaller
-# and quicker to build (measured, 100,000 inductors).
-IDENTITY_KEY_ORDER: tuple[str, ...] = ("mpn", "manufacturer")
+from partpick.catalog.tables import (  # noqa: F401 - re-exported for the modules using them
+    IDENTITY_COLUMNS,
+    IDENTITY_KEY_ORDER,
+    identity_index_name,
+    stored_fields,
+    table_name,
+)
+from partpick.fields import KINDS, Field
 
 metadata = MetaData()
 
@@ -62,21 +63,6 @@ catalog_meta = Table(
     Column("key", String(32), primary_key=True),
     Column("value", Text, nullable=False),
 )
-
-
-def table_name(kind: str) -> str:
-    """Return the name of the parts table of ``kind``."""
-    return f"parts_{kind}"
-
-
-def identity_index_name(kind: str) -> str:
-    """Return the name of the unique identity index (mpn, manufacturer) of ``kind``'s table."""
-    return f"uq_{kind}_identity"
-
-
-def stored_fields(kind: str) -> tuple[Field, ...]:
-    """Return the fields of ``kind`` stored as plain columns (all but the identity)."""
-    return tuple(f for f in fields_of(kind) if f.name not in IDENTITY_COLUMNS)
 
 
 def _column_for(f: Field) -> Column:

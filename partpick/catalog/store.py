@@ -13,15 +13,12 @@ from dataclasses import dataclass
 import sqlalchemy as sa
 from sqlalchemy import event, func, select
 
-from partpick.catalog.location import generation_key, resolve_db_url, sqlite_file
+from partpick.catalog.location import resolve_db_url, sqlite_file
 from partpick.catalog.schema import PARTS_TABLES, catalog_meta, import_batches, metadata
+from partpick.catalog.sqlite_light import apply_pragmas
+from partpick.catalog.tables import SCHEMA_VERSION
 from partpick.errors import DatabaseError
 from partpick.fields import KINDS
-
-# 2: identity as a named unique index (droppable for bulk loads), no CHECK constraints.
-# 3: file, sha256 and import time live only in import_batches; parts keep line and batch.
-# 4: the identity index is (mpn, manufacturer), the kind being one per table.
-SCHEMA_VERSION = "4"
 
 __all__ = ["Batch", "count_parts", "list_batches", "open_engine", "resolve_db_url", "sqlite_file"]
 
@@ -83,18 +80,7 @@ def _new_engine(url: str) -> sa.Engine:
 
 
 def _sqlite_pragmas(dbapi_connection, _record) -> None:
-    cursor = dbapi_connection.cursor()
-    cursor.execute("PRAGMA journal_mode=WAL")
-    # NORMAL in WAL mode: a commit does not wait for fsync, the checkpoint does (WAL, then
-    # the database file). The catalog cannot be corrupted, and an application crash loses
-    # nothing; only a power cut or OS crash before the next checkpoint can undo the last
-    # import(s), which leaves the catalog as it was before them. Imports are re-runnable, so
-    # this is the standard trade-off taken (FULL would fsync the WAL on every commit).
-    cursor.execute("PRAGMA synchronous=NORMAL")
-    cursor.execute("PRAGMA foreign_keys=ON")
-    # Up to 64 MiB of page cache (default 2 MiB): a bulk import spills far less to the WAL.
-    cursor.execute("PRAGMA cache_size=-65536")
-    cursor.close()
+    apply_pragmas(dbapi_connection)
 
 
 def _create_schema(engine: sa.Engine) -> None:
@@ -134,29 +120,6 @@ def dispose_engines() -> None:
     """Close every cached engine (tests use this between databases)."""
     while _ENGINES:
         _ENGINES.popitem()[1].dispose()
-
-
-def bump_generation(conn: sa.Connection, kind: str) -> int:
-    """Add one to the catalog's and to ``kind``'s generation in the caller's transaction.
-
-    Returns the kind's new generation. Snapshots are stamped per kind, so importing
-    capacitors leaves the inductor snapshot fresh.
-    """
-    new_values = {}
-    for key in ("generation", generation_key(kind)):
-        current = conn.execute(
-            select(catalog_meta.c.value).where(catalog_meta.c.key == key)
-        ).scalar_one_or_none()
-        new_values[key] = int(current or 0) + 1
-        if current is None:
-            conn.execute(catalog_meta.insert().values(key=key, value=str(new_values[key])))
-        else:
-            conn.execute(
-                catalog_meta.update()
-                .where(catalog_meta.c.key == key)
-                .values(value=str(new_values[key]))
-            )
-    return new_values[generation_key(kind)]
 
 
 def list_batches(db: str | None) -> list[Batch]:
