@@ -45,9 +45,12 @@ def test_new_catalog_has_the_sqlalchemy_schema(tmp_path):
     sqlite_light.connect(f"sqlite:///{by_sqlite3}", by_sqlite3).close()
     assert _layout(by_sqlite3) == _layout(by_sqlalchemy)
     meta = dict(sqlite3.connect(by_sqlite3).execute("SELECT key, value FROM catalog_meta"))
-    assert meta["schema_version"] == dict(
-        sqlite3.connect(by_sqlalchemy).execute("SELECT key, value FROM catalog_meta")
-    )["schema_version"]
+    assert (
+        meta["schema_version"]
+        == dict(sqlite3.connect(by_sqlalchemy).execute("SELECT key, value FROM catalog_meta"))[
+            "schema_version"
+        ]
+    )
 
 
 def test_file_catalog_and_in_memory_catalog_get_the_same_parts(tmp_path):
