@@ -65,6 +65,7 @@ def pick_head(ranked: RankedRole) -> dict[str, object]:
         "total": ranked.screen.size,
         "counts": dict(ranked.counts),
         "fail_counts": dict(ranked.fail_counts),
+        "requirements": [r.to_dict() for r in ranked.screen.requirements],
     }
 
 

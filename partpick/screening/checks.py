@@ -18,8 +18,45 @@ STATUS_TEXT = {PASS: "pass", FAIL: "fail", UNVERIFIED: "unverified"}
 
 
 @dataclass(frozen=True, slots=True)
+class Requirement:
+    """A rating a part must have, such as ``isat_a >= 5.4`` (A): data for a search line.
+
+    ``field`` is a catalog field, or a product of two (``vf_theta_ja`` = VF·θJA in V·°C/W,
+    ``rds_on_theta_ja`` = RDS(on)·θJA in Ω·°C/W), or ``count`` (parts in parallel).
+    ``comparison`` is ``">="`` or ``"<="``; ``value`` is SI in the dimension key ``unit``;
+    ``rule`` names the screening rule it comes from; ``note`` states an assumption.
+    """
+
+    field: str
+    comparison: str
+    value: float
+    unit: str
+    rule: str
+    note: str = ""
+
+    def __post_init__(self) -> None:
+        if self.comparison not in (">=", "<="):
+            raise ValueError(f"requirement {self.field}: unknown comparison {self.comparison!r}")
+
+    def to_dict(self) -> dict[str, object]:
+        """Return the requirement as JSON-ready data (field, comparison, value, unit, ...)."""
+        return {
+            "field": self.field,
+            "comparison": self.comparison,
+            "value": self.value,
+            "unit": self.unit,
+            "rule": self.rule,
+            "note": self.note,
+        }
+
+
+@dataclass(frozen=True, slots=True)
 class Check:
-    """One rule applied to one part. ``limit`` = ``derating`` × ``rating`` for a use rule."""
+    """One rule applied to one part. ``limit`` = ``derating`` × ``rating`` for a use rule.
+
+    ``fixes`` lists, for a failing check, single figures that would each make it pass (a
+    thermal failure: "θJA ≤ 41 °C/W" or "RDS(on) ≤ 11 mΩ"), with the rest of the part as it is.
+    """
 
     rule: str
     stress: float | None
@@ -31,6 +68,7 @@ class Check:
     unit: str
     status: str  # "pass" | "fail" | "unverified"
     missing: tuple[str, ...] = ()
+    fixes: tuple[Requirement, ...] = ()
 
     def __post_init__(self) -> None:
         if self.status not in ("pass", "fail", "unverified"):
@@ -79,7 +117,8 @@ class RuleResult:
     ``load`` is the stress as a fraction of what the rule allows (above 1 fails); it orders
     the near misses. ``missing`` pairs each field the rule needs with the mask of the parts
     that lack it. ``optional`` rules are made only where their data is present and never
-    leave a part unverified.
+    leave a part unverified. ``fixes`` holds (field, comparison, values, unit): per part,
+    the one figure that alone would make a failing part pass (NaN where none would).
     """
 
     rule: str
@@ -94,6 +133,18 @@ class RuleResult:
     status: np.ndarray
     missing: tuple[tuple[str, np.ndarray], ...] = ()
     optional: bool = False
+    fixes: tuple[tuple[str, str, np.ndarray, str], ...] = ()
+
+    def fixes_at(self, i: int) -> tuple[Requirement, ...]:
+        """Return the fixes of part ``i`` where it fails this rule (none otherwise)."""
+        if int(self.status[i]) != FAIL:
+            return ()
+        found = []
+        for name, comparison, values, unit in self.fixes:
+            value = float(values[i])
+            if np.isfinite(value) and value > 0:
+                found.append(Requirement(name, comparison, value, unit, self.rule))
+        return tuple(found)
 
     def check_at(self, i: int) -> Check | None:
         """Return the Check of part ``i``, or None where the rule does not apply to it."""
@@ -112,6 +163,7 @@ class RuleResult:
             unit=self.unit,
             status=STATUS_TEXT[code],
             missing=missing if code == UNVERIFIED else (),
+            fixes=self.fixes_at(i),
         )
 
     def checks_for(self, indices: np.ndarray) -> list[Check | None]:
@@ -135,10 +187,11 @@ class RuleResult:
                 out.append(None)
                 continue
             missing = tuple(n for n, m in lacking if m[j]) if code == UNVERIFIED else ()
+            fixes = self.fixes_at(int(indices[j])) if self.fixes and code == FAIL else ()
             out.append(
                 Check(
                     self.rule, numbers[0][j], numbers[1][j], numbers[2][j], numbers[3][j],
-                    numbers[4][j], numbers[5][j], self.unit, STATUS_TEXT[code], missing,
+                    numbers[4][j], numbers[5][j], self.unit, STATUS_TEXT[code], missing, fixes,
                 )
             )  # fmt: skip
         return out
@@ -367,6 +420,7 @@ class Screen:
     loss_w: np.ndarray
     notes: tuple[tuple[str, np.ndarray], ...]
     operating_point: tuple[tuple[str, str, float | None, str, float | None], ...]
+    requirements: tuple[Requirement, ...] = ()
 
     @property
     def size(self) -> int:

@@ -27,6 +27,7 @@ from partpick.screening.checks import (
     python_floats,
 )
 from partpick.screening.profiles import Profile
+from partpick.screening.requirements import role_requirements, with_thermal_fixes
 from partpick.screening.roles import ROLE_KINDS, ROLES
 
 if TYPE_CHECKING:
@@ -72,6 +73,8 @@ class PickResult:
 
     With ``top`` set the lists may be cut, but ``total``, ``counts`` and ``fail_counts``
     count every part. ``operating_point`` lists (key, label, value, unit, worst_vin_v).
+    ``requirements`` are the ratings a part of the role needs to pass (see
+    :mod:`partpick.screening.requirements`).
     """
 
     role: str
@@ -87,6 +90,7 @@ class PickResult:
     operating_point: tuple = ()
     max_parallel: int = 4
     kind: str = ""
+    requirements: tuple = ()
 
 
 def role_rules(role: str) -> RoleRules:
@@ -108,7 +112,9 @@ def screen_role(
     envelope = topology.envelope(spec)
     columns = read_role_columns(db, rules)
     screen = rules.screen(columns, spec, envelope, topology, profile, max_parallel)
-    return with_core_data(screen, rules.core), envelope
+    screen = with_thermal_fixes(with_core_data(screen, rules.core), spec, envelope, profile)
+    needed = role_requirements(role, spec, envelope, topology, profile, max_parallel)
+    return replace(screen, requirements=needed), envelope
 
 
 def with_core_data(screen: Screen, core: tuple[str, ...]) -> Screen:
@@ -221,6 +227,7 @@ def pick(
         operating_point=screen.operating_point,
         max_parallel=max_parallel,
         kind=screen.kind,
+        requirements=screen.requirements,
     )
 
 
