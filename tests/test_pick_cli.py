@@ -34,9 +34,9 @@ def test_table_view(db):
     assert result.exit_code == 0, result.output
     out = result.output
     for text in (
-        "Operating point used",
-        "Derating policy: standard",
-        "inductor.saturation_use",
+        "design: 6–9 V in, 18 V at 1 A out",
+        "policy standard:",
+        "saturation_use 80 %",
         "3 passed, 1 unverified, 4 failed",
         "QM-220-A",
         "isat_a",
@@ -47,6 +47,20 @@ def test_table_view(db):
     # B's sentence: needs 3.568/0.8 = 4.46 A, part has 4.4 A, at 6 V in
     assert "needs Isat ≥ 4.46 A" in out
     assert out.index("QM-220-A") < out.index("VT-220-H") < out.index("QM-330-C")
+
+
+def test_verbose_shows_the_full_operating_point_and_policy_and_brief_neither(db):
+    verbose = run(SPEC, "--role", "inductor", "--db", db, "--verbose")
+    assert verbose.exit_code == 0, verbose.output
+    for text in ("Operating point used", "Derating policy: standard", "inductor.saturation_use"):
+        assert text in verbose.output, text
+    brief = run(SPEC, "--role", "inductor", "--db", db, "--brief")
+    assert brief.exit_code == 0, brief.output
+    for text in ("Operating point used", "policy standard", "design:", "saturation_use"):
+        assert text not in brief.output, text
+    assert "3 passed, 1 unverified, 4 failed" in brief.output
+    both = run(SPEC, "--role", "inductor", "--db", db, "--brief", "--verbose")
+    assert both.exit_code == 2
 
 
 def test_json_contract(db):
@@ -114,7 +128,7 @@ def test_explain_json(db):
     assert data["status"] == "passed"
     sat = next(c for c in data["checks"] if c["rule"] == "saturation")
     assert sat["limit"] == pytest.approx(0.8 * 4.6)
-    assert sat["status"] == "pass"
+    assert sat["status"] == "passed"  # the one set of status words
 
 
 @pytest.mark.parametrize(

@@ -75,3 +75,17 @@ MaxParallelOption = Annotated[
         show_default=False,
     ),
 ]
+BriefOption = Annotated[
+    bool, typer.Option("--brief", help="Leave out the operating point and the policy.")
+]
+VerboseOption = Annotated[
+    bool,
+    typer.Option("--verbose", help="Show everything: the full operating point, policy and notes."),
+]
+
+
+def detail_level(brief: bool, verbose: bool) -> str:
+    """Return "brief", "normal" or "verbose"; both flags at once is bad input."""
+    if brief and verbose:
+        raise typer.BadParameter("--brief and --verbose exclude each other")
+    return "brief" if brief else "verbose" if verbose else "normal"

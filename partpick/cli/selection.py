@@ -14,11 +14,14 @@ from typing import Annotated
 import typer
 
 from partpick.cli.common import (
+    BriefOption,
     DbOption,
     MaxParallelOption,
     ProfileOption,
     Rank,
     RankOption,
+    VerboseOption,
+    detail_level,
     friendly_errors,
 )
 from partpick.cli.spec_options import with_spec_options
@@ -66,8 +69,12 @@ MessagesOption = Annotated[
     ),
 ]
 ExplainOption = Annotated[
-    str | None,
-    typer.Option("--explain", help="Show every check of this one part (by mpn).", metavar="MPN"),
+    list[str] | None,
+    typer.Option(
+        "--explain",
+        help="Show every check of this part (by mpn); repeat it to compare parts side by side.",
+        metavar="MPN",
+    ),
 ]
 
 
@@ -88,6 +95,8 @@ def pick_command(
     output_format: FormatOption = PickFormat.table,
     explain_mpn: ExplainOption = None,
     messages: MessagesOption = False,
+    brief: BriefOption = False,
+    verbose: VerboseOption = False,
     db: DbOption = None,
 ) -> None:
     """Check every catalog part for one role against the design's stresses and rank the passes.
@@ -101,8 +110,12 @@ def pick_command(
     role_rules(role)  # an unknown role is bad input before any work is done
     policy = load_profile(profile)
     parallel = max_parallel if max_parallel is not None else policy.max_parallel
-    if explain_mpn is not None:
-        found = explain(db, spec, role, explain_mpn, profile=policy, max_parallel=parallel)
+    detail = detail_level(brief, verbose)
+    if explain_mpn:
+        found = [
+            explain(db, spec, role, mpn, profile=policy, max_parallel=parallel)
+            for mpn in dict.fromkeys(explain_mpn)
+        ]
         _show_explanation(found, output_format, make_console)
         return
     if output_format is not PickFormat.table:
@@ -115,7 +128,7 @@ def pick_command(
     result = pick(db, spec, role, profile=policy, rank=rank.value, max_parallel=parallel, top=shown)
     from partpick.render.pick import render_pick
 
-    render_pick(result, make_console(), near_misses=shown)
+    render_pick(result, make_console(), near_misses=shown, detail=detail)
 
 
 def _write_stream(ranked, output_format: PickFormat, messages: bool) -> None:
@@ -130,10 +143,10 @@ def _write_stream(ranked, output_format: PickFormat, messages: bool) -> None:
 
 
 def _show_explanation(found, output_format: PickFormat, make_console) -> None:
+    from partpick.render.explain import explanations_json, render_explanations
     from partpick.render.exports import json_text
-    from partpick.render.pick import explain_json, render_explain
 
     if output_format is not PickFormat.table:
-        typer.echo(json_text(explain_json(found)), nl=False)
+        typer.echo(json_text(explanations_json(found)), nl=False)
     else:
-        render_explain(found, make_console())
+        render_explanations(found, make_console())

@@ -19,6 +19,7 @@ from partpick.render.console import (
     STYLE_PASS,
     STYLE_UNVERIFIED,
 )
+from partpick.render.requirements import fixes_text, requirements_assumptions, requirements_line
 from partpick.render.safe_text import Table
 from partpick.screening.checks import Check, Outcome, check_load, tightest_check
 from partpick.units import format_eng
@@ -151,10 +152,13 @@ def _ripple_voltage(check: Check, count: int) -> str:
 def _thermal(check: Check, count: int) -> str:
     rise = f"{_pct(check.utilisation)} of the allowed rise"
     verdict = "above" if check.status == "fail" else "within"
-    return (
+    sentence = (
         f"thermal: estimated Tj {_q(check.stress, 'degC')}{_at(check)}, {verdict} the "
         f"{_q(check.limit, 'degC')} limit (Tjmax {_q(check.rating, 'degC')}; {rise})"
     )
+    if check.fixes:
+        sentence += f"; would pass with {fixes_text(check.fixes)}"
+    return sentence
 
 
 def _srf(check: Check, count: int) -> str:
@@ -203,8 +207,11 @@ _WRITERS = {
 }
 
 
+MARGIN_HEADER = "closest to its limit"
+
+
 def margin_text(outcome: Outcome) -> str:
-    """Return the tightest check of a part and how much of its limit it uses."""
+    """Return the check of a part closest to its limit and the share of the limit it uses."""
     tight = tightest_check(outcome.checks)
     if tight is None:
         return "—"
@@ -242,42 +249,6 @@ def profile_json(profile) -> dict[str, object]:
     }
 
 
-def explain_json(explanation) -> dict[str, object]:
-    """Return one part's outcome with every check in full."""
-    o = explanation.outcome
-    return {
-        "role": explanation.role,
-        "profile": explanation.profile.name,
-        "mpn": o.mpn,
-        "manufacturer": o.manufacturer,
-        "status": o.status,
-        "count": o.count,
-        "loss_w": _json_number(o.loss_w),
-        "unit_price": _json_number(o.unit_price),
-        "cost": _json_number(o.cost),
-        "missing": list(o.missing),
-        "notes": list(o.notes),
-        "checks": [
-            {
-                **_check_json(c),
-                "rating": _json_number(c.rating),
-                "derating": _json_number(c.derating),
-                "unit": c.unit,
-                "status": c.status,
-                "missing": list(c.missing),
-                "message": check_sentence(c, o.count),
-            }
-            for c in o.checks
-        ],
-        "operating_point": operating_point_json(explanation.operating_point),
-        "derived": {
-            key: _json_number(o.part[key])
-            for key, _label, _unit in DERIVED
-            if isinstance(o.part.get(key), float)
-        },
-    }
-
-
 def operating_point_json(rows) -> dict[str, object]:
     """Return the operating point rows as {key: {value, unit, worst_vin_v}}."""
     return {
@@ -289,20 +260,31 @@ def operating_point_json(rows) -> dict[str, object]:
 # --- terminal --------------------------------------------------------------------------------
 
 
-def render_pick(result, console: Console, near_misses: int = 5) -> None:
-    """Print the pick report: operating point, policy, passes, unverified, failures."""
+DETAILS = ("brief", "normal", "verbose")
+
+
+def render_pick(result, console: Console, near_misses: int = 5, detail: str = "normal") -> None:
+    """Print the pick report: what was checked, the lists, and what a part would need.
+
+    ``detail`` "brief" leaves out the operating point and policy, "normal" says them in a
+    short block, "verbose" prints them in full with the basis of the role's stresses.
+    """
     kind_name = result.kind or result.role
     console.print(
         Text(
-            f"{result.role}: {result.total} {kind_name} part(s) checked; profile "
-            f"{result.profile.name}, ranked by {result.rank}",
+            f"{result.role}: {result.total} {kind_name} part(s) checked against the "
+            f"{result.profile.name} profile, ranked by {result.rank}",
             style=STYLE_HEADING,
         )
     )
-    console.print(operating_point_table(result.operating_point))
-    if result.role in ROLE_BASIS:
-        console.print(Text(ROLE_BASIS[result.role], style=STYLE_MUTED))
-    console.print(profile_table(result.profile, result.role))
+    if detail == "verbose":
+        console.print(operating_point_table(result.operating_point))
+        if result.role in ROLE_BASIS:
+            console.print(Text(ROLE_BASIS[result.role], style=STYLE_MUTED))
+        console.print(profile_table(result.profile, result.role))
+    elif detail == "normal":
+        for line in context_lines(result.operating_point, result.profile, result.role):
+            console.print(Text(line, style=STYLE_MUTED))
     counts = result.counts
     console.print(
         Text(
@@ -317,8 +299,53 @@ def render_pick(result, console: Console, near_misses: int = 5) -> None:
     if result.failed:
         console.print(failure_summary(result.fail_counts))
         console.print(near_miss_table(result.failed[:near_misses]))
+    if not result.passed and result.requirements:
+        render_requirements(result.requirements, console)
     if not result.total:
         console.print(Text(f"The catalog has no {kind_name} parts; import some first."))
+
+
+def render_requirements(requirements, console: Console, lead: str = "A part would need") -> None:
+    """Print the requirements as one pasteable line, then their assumptions."""
+    console.print(Text(f"{lead}: ", style=STYLE_HEADING).append(requirements_line(requirements)))
+    assumptions = requirements_assumptions(requirements)
+    if assumptions:
+        console.print(Text(f"({assumptions})", style=STYLE_MUTED))
+
+
+def context_lines(rows, profile, role: str) -> list[str]:
+    """Return the operating point and the role's scalar policy figures as two short lines."""
+    used = [
+        f"{label} {_q(value, unit)}" + (f" at {_q(vin, 'V')} in" if vin is not None else "")
+        for key, label, value, unit, vin in rows
+        if key not in _SPEC_KEYS
+    ]
+    figures = [
+        f"{key.split('.', 1)[-1]} {_figure_text(value, profile.unit_of(key))}"
+        for key, value in sorted(profile.figures.items())
+        if key.split(".")[0] in ROLE_SECTIONS.get(role, ())
+        and key.count(".") <= 1
+        and not math.isinf(value)
+    ]
+    lines = ["design: " + design_text({key: value for key, _l, value, _u, _v in rows})]
+    if used:
+        lines.append("stresses used: " + "; ".join(used))
+    lines.append(f"policy {profile.name}: " + ", ".join(figures) + " (--verbose for all)")
+    return lines
+
+
+def design_text(values: dict[str, float | None]) -> str:
+    """Return the spec in one line: "6–8.4 V in, 24 V at 800 mA out, 400 kHz, 60 °C ambient"."""
+    return (
+        f"{values['vin_min_v']:g}–{_q(values['vin_max_v'], 'V')} in, {_q(values['vout_v'], 'V')}"
+        f" at {_q(values['iout_a'], 'A')} out, {_q(values['fsw_hz'], 'Hz')}, ambient up to "
+        f"{_q(values['ambient_max_degc'], 'degC')}, currents at {_pct(values['efficiency'])} "
+        "efficiency"
+    )
+
+
+_SPEC_KEYS = ("vin_min_v", "vin_max_v", "vout_v", "iout_a", "fsw_hz", "ambient_max_degc",
+              "efficiency")  # fmt: skip
 
 
 def operating_point_table(rows) -> Table:
@@ -380,7 +407,7 @@ def passed_table(outcomes: list[Outcome], title: str) -> Table:
     table = Table(title=title, title_justify="left", header_style=STYLE_HEADING)
     table.add_column("#")
     table.add_column("mpn", no_wrap=True)
-    for column in ("manufacturer", "n", "loss", "cost", "tightest, of limit"):
+    for column in ("manufacturer", "n", "loss", "cost", MARGIN_HEADER):
         table.add_column(column)
     with_notes = any(o.notes for o in outcomes)
     if with_notes:
@@ -441,36 +468,3 @@ def near_miss_table(outcomes: list[Outcome]) -> Table:
         reasons = "\n".join(check_sentence(c, o.count) for c in o.failing)
         table.add_row(Text(o.mpn, style=STYLE_FAIL), o.manufacturer, reasons)
     return table
-
-
-def render_explain(explanation, console: Console) -> None:
-    """Print every check of one part, with its sentence."""
-    o = explanation.outcome
-    style = {"passed": STYLE_PASS, "failed": STYLE_FAIL}.get(o.status, STYLE_UNVERIFIED)
-    console.print(
-        Text(
-            f"{o.mpn} ({o.manufacturer}) as {explanation.role}: {o.status}, "
-            f"{o.count} in parallel; profile {explanation.profile.name}",
-            style=style,
-        )
-    )
-    table = Table(header_style=STYLE_HEADING)
-    for column in ("rule", "status", "finding"):
-        table.add_column(column)
-    for c in o.checks:
-        table.add_row(
-            c.rule, Text(c.status, style=STATUS_STYLES[c.status]), check_sentence(c, o.count)
-        )
-    console.print(table)
-    extra = [f"loss {_q(o.loss_w, 'W')}", f"cost {o.cost:.2f}" if o.cost is not None else ""]
-    console.print(Text(", ".join(x for x in extra if x), style=STYLE_MUTED))
-    for key, label, unit in DERIVED:
-        value = o.part.get(key)
-        if isinstance(value, float):
-            shown = _pct(value) if unit == "fraction" else _q(value, unit)
-            console.print(Text(f"{label}: {shown}", style=STYLE_MUTED))
-    for note in o.notes:
-        console.print(Text(f"note: {note}", style=STYLE_MUTED))
-    if o.missing:
-        console.print(Text(f"missing: {', '.join(o.missing)}", style=STYLE_UNVERIFIED))
-    console.print(operating_point_table(explanation.operating_point))
