@@ -18,7 +18,7 @@ from partpick.design.cautions import stored_energy_j
 from partpick.design.spec import Spec
 from partpick.design.topologies import get_topology
 from partpick.design.topologies.base import Caution, Envelope
-from partpick.screening.checks import Outcome
+from partpick.screening.checks import Outcome, Requirement
 from partpick.screening.diode import diode_loss_w
 from partpick.screening.pick import ROLES, PickResult, pick
 from partpick.screening.profiles import Profile
@@ -43,10 +43,12 @@ class BomLine:
 
     role: str
     designator: str
-    status: str  # "passed" | "unverified" | "no-part"
+    status: str  # "passed" | "unverified" | "no part"
     choice: Outcome | None
     alternates: tuple[Outcome, ...] = ()
     closest_failures: tuple[Outcome, ...] = ()
+    requirements: tuple[Requirement, ...] = ()  # what a part of the role needs to pass
+    purchasing: Mapping[str, object] = field(default_factory=dict)  # description, package, …
 
     @property
     def qty(self) -> int:
@@ -56,9 +58,17 @@ class BomLine:
     @property
     def extended_price(self) -> float | None:
         """Return qty × unit price, or None where the price is unknown."""
+        return self.extended_price_for(1)
+
+    def order_qty(self, build_qty: int) -> int:
+        """Return the parts to order for ``build_qty`` boards (qty per board × boards)."""
+        return self.qty * build_qty
+
+    def extended_price_for(self, build_qty: int) -> float | None:
+        """Return the order quantity × unit price for ``build_qty`` boards, None if unpriced."""
         if self.choice is None or self.choice.unit_price is None:
             return None
-        return self.qty * self.choice.unit_price
+        return self.order_qty(build_qty) * self.choice.unit_price
 
 
 @dataclass(frozen=True)
@@ -102,6 +112,7 @@ class Bom:
     verification: object | None = None  # a partpick.verify VerifyResult
     verification_note: str | None = None
     picks: dict[str, PickResult] = field(default_factory=dict, repr=False)
+    build_qty: int = 1
 
     @property
     def complete(self) -> bool:
@@ -109,9 +120,24 @@ class Bom:
         return all(line.choice is not None for line in self.lines)
 
     @property
+    def roles_without_part(self) -> tuple[str, ...]:
+        """Return the roles no catalog part can fill (empty for a complete BOM)."""
+        return tuple(line.role for line in self.lines if line.choice is None)
+
+    @property
     def total_cost(self) -> float | None:
-        """Return the sum of extended prices, or None if any chosen part has no price."""
-        prices = [line.extended_price for line in self.lines if line.choice is not None]
+        """Return the cost of one board, or None if a role is empty or a price is unknown."""
+        return self.total_cost_for(1)
+
+    def total_cost_for(self, build_qty: int) -> float | None:
+        """Return the cost of ``build_qty`` boards; None for an incomplete or unpriced BOM.
+
+        A BOM with an empty role has no cost: a sum of the other lines would read as the price
+        of a design that cannot be built.
+        """
+        if not self.complete:
+            return None
+        prices = [line.extended_price_for(build_qty) for line in self.lines]
         if not prices or any(p is None for p in prices):
             return None
         return float(sum(prices))
@@ -154,6 +180,7 @@ def build_bom(
     max_parallel: int = 4,
     max_rounds: int = 5,
     verify: bool = False,
+    build_qty: int = 1,
 ) -> Bom:
     """Return the BOM for ``spec`` from the catalog at ``db``.
 
@@ -179,6 +206,7 @@ def build_bom(
             for role in ROLES
         }
         lines = tuple(_choose_line(picks[role], alternates) for role in ROLES)
+        lines = with_purchasing(db, lines)
         envelope = picks[ROLES[0]].envelope
         role_losses, notes = estimate_losses(round_spec, lines, profile, envelope)
         pout_w = round_spec.vout_v * round_spec.iout_a
@@ -207,6 +235,7 @@ def build_bom(
         picks=picks,
         verification=verification,
         verification_note=verification_note,
+        build_qty=build_qty,
     )
 
 
@@ -225,14 +254,55 @@ def _rounds_settled(rounds: list[LossRound]) -> bool:
 
 
 def _choose_line(result: PickResult, alternates: int) -> BomLine:
-    role = result.role
+    role, needed = result.role, tuple(result.requirements)
     for status, outcomes in (("passed", result.passed), ("unverified", result.unverified)):
         if outcomes:
             alternatives = tuple(outcomes[1 : 1 + alternates])
-            return BomLine(role, DESIGNATORS[role], status, outcomes[0], alternatives)
+            return BomLine(
+                role, DESIGNATORS[role], status, outcomes[0], alternatives, requirements=needed
+            )
     return BomLine(
-        role, DESIGNATORS[role], "no-part", None, closest_failures=tuple(result.failed[:3])
-    )
+        role, DESIGNATORS[role], "no part", None, closest_failures=tuple(result.failed[:3]),
+        requirements=needed,
+    )  # fmt: skip
+
+
+PURCHASING_FIELDS: tuple[str, ...] = ("description", "package", "stock", "lifecycle")
+
+
+def with_purchasing(db: str | None, lines: tuple[BomLine, ...]) -> tuple[BomLine, ...]:
+    """Return ``lines`` with each chosen part's description, package, stock and lifecycle.
+
+    Read for the chosen parts only, after screening, so the pick path never carries them.
+    """
+    from dataclasses import replace
+
+    from partpick.catalog.columns import read_columns
+    from partpick.screening.roles import ROLE_KINDS
+
+    out = []
+    for line in lines:
+        if line.choice is None:
+            out.append(line)
+            continue
+        columns = read_columns(db, ROLE_KINDS[line.role], ["mpn", "manufacturer",
+                                                           *PURCHASING_FIELDS])  # fmt: skip
+        hits = [
+            int(i) for i in np.flatnonzero(columns["mpn"] == line.choice.mpn)
+            if (columns["manufacturer"][i] or "") == line.choice.manufacturer
+        ]  # fmt: skip
+        found = {name: _plain(columns[name][hits[0]]) for name in PURCHASING_FIELDS} if hits else {}
+        out.append(replace(line, purchasing=found))
+    return tuple(out)
+
+
+def _plain(value: object) -> object:
+    """Return a numpy scalar as a Python value (NaN as None)."""
+    if isinstance(value, np.generic):
+        value = value.item()
+    if isinstance(value, float) and not np.isfinite(value):
+        return None
+    return value
 
 
 def _part_value(line: BomLine, name: str) -> float:

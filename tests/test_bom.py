@@ -212,7 +212,7 @@ def test_markdown_report_has_its_sections_and_rows(db, standard):
         "## Specification",
         "## Worst-case stresses",
         "## Bill of materials",
-        "## Derating notes",
+        "## Derating notes (standard profile)",
         "## Losses and efficiency",
         "## Cautions",
     ):
@@ -220,7 +220,8 @@ def test_markdown_report_has_its_sections_and_rows(db, standard):
     rows = [line for line in text.splitlines() if line.startswith("| L1 |")]
     assert len(rows) == 1 and "BT-L120B" in rows[0]
     assert "| COUT | output-cap | 4 |" in text
-    assert "VRRM 40 V vs 24.1 V reverse: 60 % use, limit 80 % (standard profile)" in text
+    assert "VRRM 40 V vs 24.1 V reverse: 60 % use, limit 80 %" in text
+    assert text.count("standard profile") == 1  # named once, in the notes heading
 
 
 def test_json_document_contract(db, standard):
@@ -268,15 +269,22 @@ def test_csv_neutralises_catalog_text_and_keeps_numbers(tmp_path, standard):
     # BT-L150A carried the formula; BT-L120B still wins, so check the alternate path too
     assert not any(row["manufacturer"].startswith("=") for row in rows)
     assert float(by_ref["L1"]["unit_price"]) == pytest.approx(1.20)
-    assert float(by_ref["TOTAL"]["extended_price"]) == pytest.approx(2.55)
+    assert "TOTAL" not in by_ref  # no totals row: a purchasing sheet must not sum itself
+    # the hand-worked cost of one board, 2.55 (module docstring), is the sum of the lines
+    assert sum(float(row["extended_price"]) for row in rows) == pytest.approx(2.55)
 
 
 def test_exit_3_when_a_role_has_no_part(tmp_path):
     db = _catalog(tmp_path, diode="diodes_low_voltage.csv")
     result = CliRunner().invoke(app, ["bom", str(SPEC), "--db", db, "--no-verify"])
     assert result.exit_code == 3, result.output
-    assert "NO PART PASSES" in result.output
+    assert "no part" in result.output
     assert "BT-D320" in result.output  # the closest failure is shown with its reason
+    # once: the closest part is named in one note, its failing checks once each
+    assert result.output.count("reverse-voltage: needs VRRM") == 1
+    assert "incomplete: 1 role without a part (diode)" in result.output
+    assert "efficiency (estimate)" not in result.output and "total cost" not in result.output
+    assert "a part would need: VRRM ≥ 30.1 V" in result.output  # 24.06 V / 0.8
 
 
 def test_cli_writes_the_report_atomically(db, tmp_path):
@@ -321,7 +329,7 @@ def test_markdown_report_embeds_the_verification_plot(db, tmp_path):
     assert "\n## Verification\n" in text
     assert "![steady-state waveforms and efficiency](review.plot.png)" in text
     assert (tmp_path / "review.plot.png").read_bytes().startswith(b"\x89PNG")
-    assert f"wrote {tmp_path / 'review.plot.png'}" in result.output
+    assert f"wrote {out} and {tmp_path / 'review.plot.png'}" in result.output
 
 
 def test_cautions_include_the_energy_of_the_chosen_bank(db, standard):
@@ -346,3 +354,74 @@ def test_terminal_view_never_cuts_a_part_number_or_status(db, standard, width):
         assert mpn in text
     assert max(len(line) for line in text.splitlines()) <= width
     assert text.count("passed") >= 5
+
+
+PURCHASING_COLUMNS = [
+    "designator", "role", "qty", "manufacturer", "mpn", "description", "package", "value",
+    "key_ratings", "unit_price", "currency", "extended_price", "stock", "lifecycle", "status",
+    "notes",
+]  # fmt: skip
+
+
+def test_purchasing_csv_has_the_columns_purchasing_asks_for(db, standard):
+    text = bom_csv(build_bom(db, load_spec(SPEC), profile=standard))
+    rows = list(csv.reader(io.StringIO(text)))
+    assert rows[0] == PURCHASING_COLUMNS
+    assert len(rows) == 1 + 5  # five lines, no totals row
+    by_ref = {row[0]: dict(zip(rows[0], row, strict=True)) for row in rows[1:]}
+    assert by_ref["COUT"]["qty"] == "4" and by_ref["COUT"]["status"] == "passed"
+    # 4 × 0.20 = 0.80 (module docstring)
+    assert float(by_ref["COUT"]["extended_price"]) == pytest.approx(0.80)
+    assert by_ref["COUT"]["currency"] == ""  # none unless the spec or --currency names one
+
+
+def test_build_qty_gives_order_quantities_and_prices_for_the_whole_build(db):
+    result = CliRunner().invoke(
+        app, ["bom", str(SPEC), "--db", db, "--format", "csv", "--build-qty", "25",
+              "--currency", "EUR", "--no-verify"],
+    )  # fmt: skip
+    assert result.exit_code == 0, result.output
+    rows = list(csv.DictReader(io.StringIO(result.output)))
+    cout = next(row for row in rows if row["designator"] == "COUT")
+    # 4 per board × 25 boards = 100 parts; 100 × 0.20 = 20.00 (module docstring prices)
+    assert (cout["qty"], cout["order_qty"]) == ("4", "100")
+    assert float(cout["extended_price"]) == pytest.approx(20.0)
+    assert cout["currency"] == "EUR"
+    document = json.loads(
+        CliRunner()
+        .invoke(
+            app,
+            ["bom", str(SPEC), "--db", db, "--format", "json", "--build-qty", "25", "--no-verify"],
+        )  # fmt: skip
+        .output
+    )
+    # one board costs 2.55 (module docstring); 25 boards 63.75
+    assert document["total_cost"] == pytest.approx(2.55)
+    assert document["total_cost_for_build"] == pytest.approx(63.75)
+    assert document["build_qty"] == 25
+
+
+def test_an_incomplete_bom_has_no_efficiency_or_cost(tmp_path, standard):
+    db = _catalog(tmp_path, diode="diodes_low_voltage.csv")
+    bom = build_bom(db, load_spec(SPEC), profile=standard)
+    document = bom_document(bom)
+    assert document["complete"] is False
+    assert document["efficiency"] is None and document["total_cost"] is None
+    assert document["roles_without_part"] == ["diode"]
+    assert document["totals_status"] == "incomplete: 1 role without a part (diode)"
+    diode = next(line for line in document["lines"] if line["role"] == "diode")
+    assert diode["status"] == "no part"
+    assert {r["field"] for r in diode["requirements"]} >= {"vrrm_v", "if_avg_a", "vf_theta_ja"}
+    report = bom_markdown(bom)
+    assert "incomplete: 1 role without a part (diode)" in report
+    assert "efficiency (estimate)" not in report
+
+
+def test_status_words_are_the_same_everywhere(tmp_path, standard):
+    db = _catalog(tmp_path, diode="diodes_low_voltage.csv")
+    bom = build_bom(db, load_spec(SPEC), profile=standard)
+    words = {"passed", "unverified", "failed", "no part"}
+    document = bom_document(bom)
+    assert {line["status"] for line in document["lines"]} <= words
+    assert {c["status"] for line in document["lines"] for c in line["checks"]} <= words
+    assert {row["status"] for row in csv.DictReader(io.StringIO(bom_csv(bom)))} <= words

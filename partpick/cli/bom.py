@@ -11,11 +11,14 @@ import typer
 
 from partpick.cli.common import (
     EXIT_NO_PART,
+    BriefOption,
     DbOption,
     MaxParallelOption,
     ProfileOption,
     Rank,
     RankOption,
+    VerboseOption,
+    detail_level,
     friendly_errors,
 )
 from partpick.cli.spec_options import with_spec_options
@@ -64,6 +67,17 @@ def bom_command(
             "--verify/--no-verify", help="Add the steady-state verification of the chosen set."
         ),
     ] = True,
+    build_qty: Annotated[
+        int,
+        typer.Option(
+            "--build-qty",
+            min=1,
+            metavar="N",
+            help="Boards to build: each line gets its order quantity and price for N boards.",
+        ),
+    ] = 1,
+    brief: BriefOption = False,
+    verbose: VerboseOption = False,
     db: DbOption = None,
 ) -> None:
     """Choose one part per role, estimate the losses of that set, and print the BOM.
@@ -85,6 +99,7 @@ def bom_command(
             plot_path = report_plot_path(output)
             resolve_output(plot_path, "--output (its plot)")
             check_own_file(plot_path, "--output (its plot)")
+    detail = detail_level(brief, verbose)
     policy = load_profile(profile)
     bom = build_bom(
         db,
@@ -94,28 +109,31 @@ def bom_command(
         alternates=alternates,
         max_parallel=max_parallel if max_parallel is not None else policy.max_parallel,
         verify=verify,
+        build_qty=build_qty,
     )
+    written: list[Path] = []
     plot_name = None
     if plot_path is not None and bom.verification is not None:
         plot_name = _write_plot(bom, plot_path)
-        typer.echo(f"wrote {plot_path}", err=True)
-    text = _rendered(bom, output_format, plot_name, bom_report)
+        written.append(plot_path)
     if output is None:
         if output_format is BomFormat.table:
             from partpick.render.bom import render_bom_table
             from partpick.render.console import make_console
 
-            render_bom_table(bom, make_console())
+            render_bom_table(bom, make_console(), detail)
         else:
-            typer.echo(text, nl=False)
+            typer.echo(_rendered(bom, output_format, plot_name, bom_report, detail), nl=False)
     else:
-        write_atomically(output, text)
-        typer.echo(f"wrote {output}", err=True)
+        write_atomically(output, _rendered(bom, output_format, plot_name, bom_report, detail))
+        written.insert(0, output)
+    if written:
+        typer.echo(f"wrote {' and '.join(str(path) for path in written)}", err=True)
     if not bom.complete:
         raise typer.Exit(EXIT_NO_PART)
 
 
-def _rendered(bom, output_format: BomFormat, plot_name: str | None, report) -> str:
+def _rendered(bom, output_format: BomFormat, plot_name: str | None, report, detail: str) -> str:
     if output_format is BomFormat.json:
         return report.bom_json(bom)
     if output_format is BomFormat.csv:
@@ -126,7 +144,7 @@ def _rendered(bom, output_format: BomFormat, plot_name: str | None, report) -> s
     from partpick.render.console import make_console
 
     buffer = io.StringIO()
-    render_bom_table(bom, make_console(file=buffer, width=120))
+    render_bom_table(bom, make_console(file=buffer, width=120), detail)
     return buffer.getvalue()
 
 

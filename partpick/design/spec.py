@@ -73,6 +73,9 @@ SPEC_KEYS: dict[str, SpecKey] = {
     "quiescent_w": SpecKey(
         "quiescent_w", "W", 0.0, "fixed controller loss (quiescent and housekeeping)"
     ),
+    "currency": SpecKey(
+        "currency", None, "", "currency of the catalog prices, shown in the BOM (e.g. EUR)"
+    ),
     "name": SpecKey("name", None, "", "name of the design"),
     "notes": SpecKey("notes", None, "", "free text"),
 }
@@ -114,6 +117,7 @@ class Spec:
     gate_drive_v: float = 10.0
     quiescent_w: float = 0.0
     topology: str = "boost"
+    currency: str = ""
     name: str = ""
     notes: str = ""
     source: str | None = None

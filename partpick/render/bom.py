@@ -22,12 +22,13 @@ from partpick.render.console import (
     STYLE_UNVERIFIED,
 )
 from partpick.render.pick import check_sentence
+from partpick.render.requirements import requirements_line
 from partpick.render.safe_text import Table
-from partpick.screening.checks import Check
+from partpick.render.status import NO_PART, PASSED, UNVERIFIED, check_status_word
+from partpick.screening.checks import Check, tightest_check
 from partpick.units import format_eng
 
-STATUS_STYLES = {"passed": STYLE_PASS, "unverified": STYLE_UNVERIFIED, "no-part": STYLE_FAIL}
-STATUS_WORDS = {"passed": "passed", "unverified": "UNVERIFIED", "no-part": "NO PART PASSES"}
+STATUS_STYLES = {PASSED: STYLE_PASS, UNVERIFIED: STYLE_UNVERIFIED, NO_PART: STYLE_FAIL}
 LINE_COLUMNS = (
     "ref",
     "role",
@@ -55,29 +56,98 @@ def percent(value: float | None, decimals: int = 0) -> str:
     return "—" if value is None else f"{value * 100:.{decimals}f} %"
 
 
-def check_note(check: Check, profile_name: str, count: int = 1) -> str:
-    """Return the derating note of ``check``: the pick report's sentence plus the policy.
+def check_note(check: Check, count: int = 1) -> str:
+    """Return the derating note of ``check``: the pick report's sentence, and its status
+    where it did not pass. The profile is named once per BOM, above the notes."""
+    verdict = "" if check.status == "pass" else f" [{check_status_word(check.status)}]"
+    return f"{check_sentence(check, count)}{verdict}"
 
-    For a diode's reverse voltage, e.g. "reverse-voltage: VRRM 60 V vs 36.1 V stress:
-    60% use, limit 80% (standard profile)".
+
+def line_notes(line: BomLine, everything: bool = True) -> list[str]:
+    """Return the derating notes of a line: its checks, then the part's own notes.
+
+    With ``everything`` False a chosen part shows only the check closest to its limit and the
+    checks that did not pass; an empty role always says what came closest and what it needs.
     """
-    verdict = "" if check.status == "pass" else f" [{check.status.upper()}]"
-    return f"{check_sentence(check, count)} ({profile_name} profile){verdict}"
-
-
-def line_notes(line: BomLine, profile_name: str) -> list[str]:
-    """Return the derating notes of a line: one per check, then the part's own notes."""
     if line.choice is None:
-        return [
-            f"no part passes; closest: {o.mpn} fails "
-            + ", ".join(check_note(c, profile_name) for c in o.failing)
-            for o in line.closest_failures
-        ]
-    notes = [check_note(c, profile_name, line.qty) for c in line.choice.checks]
+        return empty_role_notes(line)
+    checks = line.choice.checks
+    if not everything:
+        tight = tightest_check(checks)
+        checks = tuple(c for c in checks if c is tight or c.status != "pass")
+    notes = [check_note(c, line.qty) for c in checks]
     notes += list(line.choice.notes)
-    if line.status == "unverified":
-        notes.append(f"UNVERIFIED: missing {', '.join(line.choice.missing)}")
+    if line.status == UNVERIFIED:
+        notes.append(f"unverified: missing {', '.join(line.choice.missing)}")
     return notes
+
+
+def empty_role_notes(line: BomLine) -> list[str]:
+    """Return what came closest for a role without a part (once), and what a part needs."""
+    notes = []
+    if line.closest_failures:
+        listed = ", ".join(
+            f"{o.mpn} (fails {', '.join(c.rule for c in o.failing)})" for o in line.closest_failures
+        )
+        notes.append(f"no part passes; closest: {listed}")
+        first = line.closest_failures[0]
+        notes += [f"{first.mpn}: {check_sentence(c, first.count)}" for c in first.failing]
+    else:
+        notes.append("no part of this kind in the catalog")
+    if line.requirements:
+        notes.append(f"a part would need: {requirements_line(line.requirements)}")
+    return notes
+
+
+def totals_status(bom: Bom) -> str | None:
+    """Return "incomplete: n roles without a part (…)", or None for a complete BOM."""
+    missing = bom.roles_without_part
+    if not missing:
+        return None
+    noun = "role" if len(missing) == 1 else "roles"
+    return f"incomplete: {len(missing)} {noun} without a part ({', '.join(missing)})"
+
+
+def efficiency_sentence(bom: Bom) -> str:
+    """Return how the currents were computed and, for a complete set, what the parts give."""
+    used = f"Currents computed at {percent(bom.spec.efficiency, 1)} efficiency"
+    if not bom.complete:
+        return f"{used}; no efficiency estimate for an incomplete set."
+    rounds = len(bom.rounds)
+    return (
+        f"{used}; the chosen parts' losses give an estimated {percent(bom.efficiency, 1)} "
+        f"({rounds} round{'s' if rounds > 1 else ''})."
+    )
+
+
+def round_sentence(r) -> str:
+    """Return one loss round as a sentence, for --verbose."""
+    return (
+        f"round {r.number}: currents computed at {percent(r.efficiency_used, 1)} efficiency; "
+        f"the chosen parts lose {eng(sum(r.losses_w.values()), 'W')}, an estimated "
+        f"{percent(r.efficiency_estimated, 1)}"
+    )
+
+
+def money(value: float | None, currency: str = "") -> str:
+    """Return a price with two decimals and the currency, if one was given."""
+    text = price(value)
+    return f"{text} {currency}" if currency and value is not None else text
+
+
+def cost_sentence(bom: Bom) -> str:
+    """Return the cost of one board and of the build quantity, or why there is none."""
+    status = totals_status(bom)
+    if status is not None:
+        return status
+    currency = bom.spec.currency
+    one = bom.total_cost_for(1)
+    if one is None:
+        return "total cost unknown: a chosen part has no price"
+    text = f"total cost {money(one, currency)} per board"
+    if bom.build_qty > 1:
+        text += f", {money(bom.total_cost_for(bom.build_qty), currency)} for {bom.build_qty}"
+    return text
 
 
 _VALUE_FIELDS: dict[str, tuple[tuple[str, str], ...]] = {
@@ -124,52 +194,67 @@ def price(value: float | None) -> str:
     return "—" if value is None else f"{value:.2f}"
 
 
-def line_header(line: BomLine) -> list[str]:
+def line_header(line: BomLine, build_qty: int = 1) -> list[str]:
+    """Return the text cells of a line; with a build quantity, qty reads "3 (30)"."""
     choice = line.choice
+    qty = str(line.qty) if build_qty <= 1 else f"{line.qty} ({line.order_qty(build_qty)})"
     return [
         line.designator,
         line.role,
-        str(line.qty),
+        qty,
         choice.manufacturer if choice else "",
         choice.mpn if choice else "",
         line_value(line),
         line_ratings(line),
         price(choice.unit_price if choice else None),
-        price(line.extended_price),
+        price(line.extended_price_for(build_qty)),
     ]
 
 
 # ---------------------------------------------------------------------------------- terminal
 
 
-def render_bom_table(bom: Bom, console: Console) -> None:
-    """Print the BOM to ``console``: spec, lines with notes, losses, totals and cautions."""
-    console.print(_spec_panel(bom))
-    console.print(_lines_table(bom) if console.width >= WIDE_CONSOLE else _lines_list(bom))
-    alternates = _alternates_table(bom)
-    if alternates is not None:
-        console.print(alternates)
-    console.print(_notes_table(bom))
-    console.print(_summary_table(bom))
+def render_bom_table(bom: Bom, console: Console, detail: str = "normal") -> None:
+    """Print the BOM to ``console``: spec, lines, notes, losses, totals and cautions.
+
+    ``detail`` "normal" keeps each line's notes to the check closest to its limit and any
+    check that did not pass; "verbose" prints every check, the rounds and the full tables;
+    "brief" also leaves out the alternates.
+    """
+    verbose = detail == "verbose"
+    for text in _heading_lines(bom, verbose):
+        console.print(text)
+    wide = console.width >= WIDE_CONSOLE
+    console.print(_lines_table(bom) if wide else _lines_list(bom))
+    if detail != "brief":
+        alternates = _alternates_table(bom) if verbose else _alternates_lines(bom)
+        if alternates is not None:
+            console.print(alternates)
+    console.print(_notes_table(bom, verbose))
+    console.print(_summary_table(bom) if verbose else _summary_lines(bom))
     _render_verification(bom, console)
-    console.print(_cautions_panel(bom))
+    console.print(_cautions_panel(bom) if verbose else _cautions_lines(bom))
 
 
-def _spec_panel(bom: Bom) -> Panel:
+def _heading_lines(bom: Bom, verbose: bool) -> list[Text]:
     spec = bom.spec
     lines = [
-        f"{spec.name or 'boost stage'}: {spec.vin_min_v:g}–{spec.vin_max_v:g} V in, "
-        f"{spec.vout_v:g} V / {eng(spec.iout_a, 'A')} out at {eng(spec.fsw_hz, 'Hz')}, "
-        f"ambient up to {spec.ambient_max_degc:g} °C",
-        f"profile: {bom.profile.name}; ranked by {bom.rank}; efficiency used for the currents: "
-        f"{percent(spec.efficiency, 1)} after {len(bom.rounds)} round(s)",
-    ]
-    for r in bom.rounds:
-        lines.append(
-            f"  round {r.number}: currents at {r.efficiency_used:.3f} → estimated "
-            f"{r.efficiency_estimated:.3f} ({sum(r.losses_w.values()):.3f} W lost)"
-        )
-    return Panel(Text("\n".join(lines)), title="bill of materials", title_align="left")
+        Text(
+            f"bill of materials: {spec.name or 'boost stage'} ({bom.profile.name} profile, "
+            f"ranked by {bom.rank})",
+            style=STYLE_HEADING,
+        ),
+        Text(
+            f"{spec.vin_min_v:g}–{spec.vin_max_v:g} V in, {spec.vout_v:g} V at "
+            f"{eng(spec.iout_a, 'A')} out, {eng(spec.fsw_hz, 'Hz')}, ambient up to "
+            f"{spec.ambient_max_degc:g} °C" + (f"; {bom.build_qty} boards" if bom.build_qty > 1
+                                               else ""),
+        ),
+        Text(efficiency_sentence(bom), style=STYLE_MUTED),
+    ]  # fmt: skip
+    if verbose:
+        lines += [Text(f"  {round_sentence(r)}", style=STYLE_MUTED) for r in bom.rounds]
+    return lines
 
 
 def _lines_table(bom: Bom) -> Table:
@@ -189,28 +274,49 @@ def _lines_table(bom: Bom) -> Table:
         ref, role, qty, manufacturer, mpn, value, _, unit, extended = line_header(line)
         part = Text(mpn, no_wrap=True)
         part.append(f"\n{manufacturer}", style=STYLE_MUTED)
-        status = Text(STATUS_WORDS[line.status], style=STATUS_STYLES[line.status])
+        status = Text(line.status, style=STATUS_STYLES[line.status])
         ratings = line_ratings(line, separator="\n")
         reference = Text(ref, style=STYLE_HEADING)
         reference.append(f"\n{role}", style=STYLE_MUTED)
-        cost = unit if line.qty <= 1 else f"{unit}\n×{qty} = {extended}"
-        table.add_row(reference, qty, status, part, value, ratings, cost)
+        table.add_row(reference, qty, status, part, value, ratings, _price_cell(line, unit, bom))
     return table
 
 
+def _price_cell(line: BomLine, unit: str, bom: Bom) -> str:
+    order = line.order_qty(bom.build_qty)
+    if order <= 1 or line.choice is None:
+        return unit
+    return f"{unit}\n×{order} = {price(line.extended_price_for(bom.build_qty))}"
+
+
 def _lines_list(bom: Bom) -> Group:
-    """Return the lines as short stacked blocks, for consoles too narrow for the table."""
+    """Return the lines as two-row blocks, for consoles too narrow for the table."""
     blocks: list[Text] = [Text("parts", style=STYLE_HEADING)]
     for line in bom.lines:
-        ref, role, qty, manufacturer, mpn, value, ratings, unit, extended = line_header(line)
-        block = Text(f"{ref} ", style=STYLE_HEADING)
+        ref, role, qty, manufacturer, mpn, value, ratings, unit, _ = line_header(line)
+        block = Text(f"{ref:<5}", style=STYLE_HEADING)
         block.append(f"{role} ×{qty}  ")
-        block.append(STATUS_WORDS[line.status], style=STATUS_STYLES[line.status])
-        block.append(f"\n  {mpn}  ")
-        block.append(manufacturer, style=STYLE_MUTED)
-        block.append(f"\n  {value}; {ratings}\n  price {unit} each, {extended} for {qty}")
+        block.append(line.status, style=STATUS_STYLES[line.status])
+        if line.choice is not None:
+            block.append(f"  {mpn} ")
+            block.append(f"({manufacturer})", style=STYLE_MUTED)
+            order = line.order_qty(bom.build_qty)
+            total = price(line.extended_price_for(bom.build_qty))
+            cost = f"{unit} each" + (f", {total} for {order}" if order > 1 else "")
+            block.append(f"\n     {value}; {ratings}; {cost}")
         blocks.append(block)
     return Group(*blocks)
+
+
+def _alternates_lines(bom: Bom) -> Text | None:
+    rows = [line for line in bom.lines if line.alternates]
+    if not rows:
+        return None
+    text = Text("alternates (next passed parts, best first)", style=STYLE_HEADING)
+    for line in rows:
+        listed = ", ".join(f"{alt.mpn} ×{alt.count} {price(alt.cost)}" for alt in line.alternates)
+        text.append(f"\n{line.designator:<5}{listed}", style=None)
+    return text
 
 
 def _alternates_table(bom: Bom) -> Table | None:
@@ -231,25 +337,74 @@ def _alternates_table(bom: Bom) -> Table | None:
     return table
 
 
-def _notes_table(bom: Bom) -> Table:
-    table = Table(title="derating notes", title_justify="left", show_header=False)
-    table.add_column("ref", style=STYLE_HEADING)
+def _notes_table(bom: Bom, verbose: bool) -> Table:
+    shown = "every check" if verbose else "the check closest to its limit; --verbose for all"
+    table = Table(
+        title=f"derating notes, {bom.profile.name} profile ({shown})",
+        title_justify="left", show_header=False, box=None if not verbose else box.SQUARE,
+        pad_edge=False,
+    )  # fmt: skip
+    table.add_column("ref", style=STYLE_HEADING, no_wrap=True)
     table.add_column("note")
     for line in bom.lines:
-        for i, note in enumerate(line_notes(line, bom.profile.name)):
-            style = STYLE_FAIL if "[FAIL]" in note or line.status == "no-part" else None
-            table.add_row(line.designator if i == 0 else "", Text(note, style=style))
+        for i, note in enumerate(line_notes(line, everything=verbose)):
+            failed = "[failed]" in note or line.status == NO_PART
+            table.add_row(line.designator if i == 0 else "", Text(note, style=STYLE_FAIL if failed
+                                                                  else None))  # fmt: skip
     return table
+
+
+def loss_line(bom: Bom) -> str:
+    """Return the losses per role and their total in one line."""
+    each = ", ".join(f"{role} {eng(loss, 'W')}" for role, loss in bom.losses_w.items())
+    return f"losses: {each}; total {eng(bom.total_loss_w, 'W')}"
+
+
+def ripple_line(bom: Bom) -> str | None:
+    """Return the ripple of the chosen set in one line, or None without an inductor."""
+    r = bom.ripple
+    if r is None:
+        return None
+    output = "" if r.vout_ripple_v is None else (
+        f"; output {eng(r.vout_ripple_v, 'V')} with {r.output_count} part(s)")  # fmt: skip
+    ccm = "in CCM" if r.ccm_full_load else "NOT in CCM"
+    return (
+        f"ripple: inductor {eng(r.il_ripple_nominal_a, 'A')} at nominal L, "
+        f"{eng(r.il_ripple_min_l_a, 'A')} at minimum L ({eng(r.inductance_min_h, 'H')})"
+        f"{output}; full load {ccm}"
+    )
+
+
+def _summary_lines(bom: Bom) -> Text:
+    text = Text("losses and totals", style=STYLE_HEADING)
+    status = totals_status(bom)
+    if status is None:
+        text.append(f"\n{loss_line(bom)}", style=None)
+        text.append(f"\nefficiency (estimate) {percent(bom.efficiency, 1)}; {cost_sentence(bom)}",
+                    style=None)  # fmt: skip
+    else:
+        text.append(f"\n{status}: no efficiency or cost for a design with empty roles",
+                    style=STYLE_FAIL)  # fmt: skip
+    for note in bom.loss_notes:
+        text.append(f"\n{note}", style=STYLE_UNVERIFIED)
+    ripple = ripple_line(bom)
+    if ripple is not None:
+        text.append(f"\n{ripple}", style=None)
+    return text
 
 
 def _summary_table(bom: Bom) -> Table:
     table = Table(title="losses and totals", title_justify="left", show_header=False)
     table.add_column("item")
     table.add_column("value", justify="right")
+    status = totals_status(bom)
+    if status is not None:
+        table.add_row(Text(status, style=STYLE_FAIL), "")
     for role, loss in bom.losses_w.items():
         table.add_row(f"loss, {role}", eng(loss, "W"))
     table.add_row("loss, total", eng(bom.total_loss_w, "W"))
-    table.add_row("efficiency (estimate)", percent(bom.efficiency, 1))
+    if status is None:
+        table.add_row("efficiency (estimate)", percent(bom.efficiency, 1))
     for note in bom.loss_notes:
         table.add_row(Text(note, style=STYLE_UNVERIFIED), "")
     if bom.ripple is not None:
@@ -261,9 +416,17 @@ def _summary_table(bom: Bom) -> Table:
         )
         table.add_row(f"output ripple with {r.output_count} part(s)", eng(r.vout_ripple_v, "V"))
         table.add_row("full load in CCM with this inductor", "yes" if r.ccm_full_load else "NO")
-    table.add_row("total cost", price(bom.total_cost))
+    if status is None:
+        table.add_row("total cost", cost_sentence(bom).removeprefix("total cost "))
     table.add_row("profile", bom.profile.name)
     return table
+
+
+def _cautions_lines(bom: Bom) -> Text:
+    text = Text("cautions", style=STYLE_CAUTION)
+    for c in bom.cautions:
+        text.append(f"\n• {c.text}", style=None)
+    return text
 
 
 def _cautions_panel(bom: Bom) -> Panel:

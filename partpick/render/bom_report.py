@@ -8,17 +8,21 @@ from partpick.bom import Bom
 from partpick.design.topologies.base import GROUPS
 from partpick.render.bom import (
     LINE_COLUMNS,
-    STATUS_WORDS,
+    cost_sentence,
+    efficiency_sentence,
     eng,
     line_header,
     line_notes,
     line_ratings,
     line_value,
     percent,
-    price,
+    round_sentence,
+    totals_status,
 )
 from partpick.render.exports import csv_text, json_text, markdown_table
+from partpick.render.requirements import requirements_line
 from partpick.render.safe_text import markdown_text
+from partpick.render.status import check_status_word
 from partpick.render.stress import GROUP_TITLES, format_figure_value
 from partpick.screening.checks import Outcome
 
@@ -28,37 +32,65 @@ CSV_HEADER = (
     "qty",
     "manufacturer",
     "mpn",
+    "description",
+    "package",
     "value",
     "key_ratings",
     "unit_price",
+    "currency",
     "extended_price",
+    "stock",
+    "lifecycle",
     "status",
     "notes",
 )
+"""The purchasing columns; with a build quantity, ``order_qty`` follows ``qty``."""
+
+
+def csv_header(bom: Bom) -> tuple[str, ...]:
+    """Return the CSV columns: :data:`CSV_HEADER`, plus ``order_qty`` for more than 1 board."""
+    if bom.build_qty <= 1:
+        return CSV_HEADER
+    at = CSV_HEADER.index("qty") + 1
+    return CSV_HEADER[:at] + ("order_qty",) + CSV_HEADER[at:]
 
 
 def bom_csv(bom: Bom) -> str:
-    """Return the BOM as spreadsheet-safe CSV, one row per line plus a total row."""
+    """Return the BOM as spreadsheet-safe CSV for purchasing: one row per line, no totals.
+
+    ``qty`` is per board; ``extended_price`` is for the order (``order_qty`` = qty × build
+    quantity). Totals belong in the table, Markdown and JSON, not in a sheet that gets summed.
+    """
+    header = csv_header(bom)
     rows = []
     for line in bom.lines:
-        choice = line.choice
-        rows.append(
-            [
-                line.designator,
-                line.role,
-                line.qty,
-                choice.manufacturer if choice else "",
-                choice.mpn if choice else "",
-                line_value(line),
-                line_ratings(line),
-                choice.unit_price if choice else None,
-                line.extended_price,
-                line.status,
-                "; ".join(line_notes(line, bom.profile.name)),
-            ]
-        )
-    rows.append(["TOTAL", "", "", "", "", "", "", None, bom.total_cost, "", ""])
-    return csv_text(CSV_HEADER, rows)
+        choice, buy = line.choice, line.purchasing
+        cells = {
+            "designator": line.designator,
+            "role": line.role,
+            "qty": line.qty,
+            "order_qty": line.order_qty(bom.build_qty),
+            "manufacturer": choice.manufacturer if choice else "",
+            "mpn": choice.mpn if choice else "",
+            "description": buy.get("description") or "",
+            "package": buy.get("package") or "",
+            "value": line_value(line),
+            "key_ratings": line_ratings(line),
+            "unit_price": choice.unit_price if choice else None,
+            "currency": bom.spec.currency,
+            "extended_price": line.extended_price_for(bom.build_qty),
+            "stock": buy.get("stock"),
+            "lifecycle": buy.get("lifecycle") or "",
+            "status": line.status,
+            "notes": "; ".join(line_notes(line)),
+        }
+        rows.append([cells[name] for name in header])
+    return csv_text(header, rows)
+
+
+def _check_json(check) -> dict:
+    """Return a check's data with its status in the one set of status words."""
+    return {**dataclasses.asdict(check), "status": check_status_word(check.status)}
 
 
 def _outcome_json(outcome: Outcome) -> dict:
@@ -81,14 +113,22 @@ def bom_document(bom: Bom) -> dict:
                 "role": line.role,
                 "designator": line.designator,
                 "qty": line.qty,
+                "order_qty": line.order_qty(bom.build_qty),
                 "mpn": choice.mpn if choice else None,
                 "manufacturer": choice.manufacturer if choice else None,
+                **{
+                    name: line.purchasing.get(name)
+                    for name in ("description", "package", "stock", "lifecycle")
+                },
                 "unit_price": choice.unit_price if choice else None,
-                "extended_price": line.extended_price,
+                "extended_price": line.extended_price_for(bom.build_qty),
                 "value": line_value(line),
+                "key_ratings": line_ratings(line),
                 "status": line.status,
-                "notes": line_notes(line, bom.profile.name),
-                "checks": [dataclasses.asdict(c) for c in choice.checks] if choice else [],
+                "notes": line_notes(line),
+                "requirements": [r.to_dict() for r in line.requirements],
+                "requirements_text": requirements_line(line.requirements),
+                "checks": [_check_json(c) for c in choice.checks] if choice else [],
                 "part": dict(choice.part) if choice else None,
                 "alternates": [_outcome_json(o) for o in line.alternates],
                 "closest_failures": [
@@ -106,12 +146,17 @@ def bom_document(bom: Bom) -> dict:
         "lines": lines,
         "losses_w": dict(bom.losses_w),
         "total_loss_w": bom.total_loss_w,
-        "efficiency": bom.efficiency,
+        "efficiency": bom.efficiency if bom.complete else None,
         "efficiency_used": bom.spec.efficiency,
         "rounds": [dataclasses.asdict(r) for r in bom.rounds],
         "ripple": dataclasses.asdict(bom.ripple) if bom.ripple else None,
+        "build_qty": bom.build_qty,
+        "currency": bom.spec.currency or None,
         "total_cost": bom.total_cost,
+        "total_cost_for_build": bom.total_cost_for(bom.build_qty),
         "complete": bom.complete,
+        "roles_without_part": list(bom.roles_without_part),
+        "totals_status": totals_status(bom) or "complete",
         "cautions": [c.text for c in bom.cautions],
     }
     if bom.verification is not None:
@@ -144,17 +189,18 @@ def bom_markdown(bom: Bom, plot_file: str | None = None) -> str:
         "",
         markdown_table(
             LINE_COLUMNS,
-            [line_header(line) + [STATUS_WORDS[line.status]] for line in bom.lines],
+            [line_header(line, bom.build_qty) + [line.status] for line in bom.lines],
         ),
         "",
     ]
-    out += ["## Derating notes", ""]
+    out += [f"## Derating notes ({markdown_text(bom.profile.name)} profile)", ""]
     for line in bom.lines:
         out.append(f"### {line.designator} ({line.role})")
         out.append("")
-        out += [f"- {markdown_text(note)}" for note in line_notes(line, bom.profile.name)]
+        out += [f"- {markdown_text(note)}" for note in line_notes(line)]
         out.append("")
-    out += ["## Losses and efficiency", "", markdown_table(("item", "value"), _loss_rows(bom)), ""]
+    out += ["## Losses and efficiency", "", efficiency_sentence(bom), ""]
+    out += [markdown_table(("item", "value"), _loss_rows(bom)), ""]
     out += _verification_markdown(bom, plot_file)
     out += ["## Cautions", ""] + [f"- {markdown_text(c.text)}" for c in bom.cautions] + [""]
     return "\n".join(out)
@@ -212,6 +258,7 @@ def _spec_rows(bom: Bom) -> list[list[str]]:
         ["output ripple limit", eng(s.vout_ripple_v, "V")],
         ["ambient, maximum", f"{s.ambient_max_degc:g} °C"],
         ["efficiency used for the currents", percent(s.efficiency, 1)],
+        ["boards to build", str(bom.build_qty)],
         ["derating profile", bom.profile.name],
         ["ranked by", bom.rank],
     ]
@@ -231,13 +278,15 @@ def _stress_rows(bom: Bom) -> list[list[str]]:
 
 
 def _loss_rows(bom: Bom) -> list[list[str]]:
-    rows = [[f"loss, {role}", eng(v, "W")] for role, v in bom.losses_w.items()]
-    rows += [
-        ["loss, total", eng(bom.total_loss_w, "W")],
-        ["efficiency (estimate)", percent(bom.efficiency, 1)],
-        ["rounds", str(len(bom.rounds))],
-        ["total cost", price(bom.total_cost)],
-    ]
+    status = totals_status(bom)
+    rows = [["totals", status]] if status is not None else []
+    rows += [[f"loss, {role}", eng(v, "W")] for role, v in bom.losses_w.items()]
+    rows.append(["loss, total", eng(bom.total_loss_w, "W")])
+    if status is None:
+        rows.append(["efficiency (estimate)", percent(bom.efficiency, 1)])
+    rows += [[f"round {r.number}", round_sentence(r).partition(": ")[2]] for r in bom.rounds]
+    if status is None:
+        rows.append(["total cost", cost_sentence(bom).removeprefix("total cost ")])
     if bom.ripple is not None:
         r = bom.ripple
         rows += [
