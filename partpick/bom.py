@@ -217,7 +217,7 @@ def build_bom(
             break
         efficiency_used = estimated
     verification, verification_note = (
-        verify_chosen_set(round_spec, lines, profile, rounds[-1].efficiency_estimated)
+        verify_chosen_set(round_spec, lines, profile, rounds[-1].efficiency_estimated, db=db)
         if verify
         else (None, None)
     )
@@ -431,7 +431,12 @@ def _output_ripple_v(spec, envelope, line, stress) -> float | None:
 
 
 def verify_chosen_set(
-    spec: Spec, lines: tuple[BomLine, ...], profile: Profile, efficiency_estimate: float
+    spec: Spec,
+    lines: tuple[BomLine, ...],
+    profile: Profile,
+    efficiency_estimate: float,
+    *,
+    db: str | None = None,
 ) -> tuple[object | None, str | None]:
     """Return the steady-state verification of the chosen set at vin_min and vin_max.
 
@@ -447,8 +452,11 @@ def verify_chosen_set(
     absent = [role for role in needed if by_role[role].choice is None]
     if absent:
         return None, f"not verified: no part chosen for {', '.join(absent)}"
+    from partpick.verify.parts import full_part
+
     parts = {
-        role: {"mpn": by_role[role].choice.mpn, **by_role[role].choice.part} for role in needed
+        role: full_part(db, role, by_role[role].choice.mpn, by_role[role].choice.part)
+        for role in needed
     }
     try:
         result = verify_parts(

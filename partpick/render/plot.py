@@ -48,8 +48,12 @@ def plot_bytes(result: VerifyResult, file_format: str = "png") -> bytes:
         ax_vo.plot(time_us, wave.vout_v, color="tab:red")
         ax_vo.set(xlabel="time (µs)", ylabel="output voltage (V)")
         for vin, (loads, efficiency) in curves.items():
-            ax_eff.plot(loads, efficiency * 100.0, marker="o", label=f"{vin:g} V in")
-        ax_eff.set(xlabel="load current (A)", ylabel="efficiency (%)")
+            ax_eff.plot(loads, efficiency * 100.0, label=f"{vin:g} V in")
+        bound = any(p.state.efficiency_is_upper_bound for p in result.points)
+        label = "efficiency (%), upper bound" if bound else "efficiency (%)"
+        ax_eff.set(xlabel="load current (A)", ylabel=label)
+        if bound:
+            ax_eff.set_title("loss terms without catalog data are not included", fontsize=9)
         ax_eff.legend()
         for axis in (ax_il, ax_vo, ax_eff):
             axis.grid(True, alpha=0.3)

@@ -77,8 +77,9 @@ class BomSelection:
 def parts_from_bom(path: str | Path, db: str | None) -> BomSelection:
     """Return the parts of the BOM JSON at ``path`` (the document ``partpick bom`` writes).
 
-    A line's ``part`` fields are used where present; otherwise its ``mpn`` is looked up in
-    the catalog. The output-cap line's ``qty`` is the output count.
+    A line's ``part`` fields are used where present, on top of the part's catalog row where
+    the catalog holds it (for the loss-only figures a BOM line does not carry); otherwise its
+    ``mpn`` is looked up in the catalog. The output-cap line's ``qty`` is the output count.
     """
     document = _read_bom(path)
     lines = {line.get("role"): line for line in document["lines"] if isinstance(line, dict)}
@@ -89,7 +90,7 @@ def parts_from_bom(path: str | Path, db: str | None) -> BomSelection:
             raise ParameterError(role, "has no part in this BOM", part=str(path))
         part = line.get("part")
         if isinstance(part, dict) and part:
-            parts[role] = {"mpn": line["mpn"], **part}
+            parts[role] = full_part(db, role, str(line["mpn"]), part)
         else:
             parts[role] = find_part(db, role, str(line["mpn"]))
     qty = lines["output-cap"].get("qty", 1)
@@ -103,6 +104,27 @@ def parts_from_bom(path: str | Path, db: str | None) -> BomSelection:
         efficiency=float(efficiency) if isinstance(efficiency, int | float) else None,
         profile=profile if isinstance(profile, str) else None,
     )
+
+
+def full_part(
+    db: str | None, role: str, mpn: str, fields: Mapping[str, object]
+) -> dict[str, object]:
+    """Return ``fields`` of part ``mpn`` on top of its full catalog row (where it has one)."""
+    return {**_catalog_row(db, role, mpn), "mpn": mpn, **fields}
+
+
+def _catalog_row(db: str | None, role: str, mpn: str) -> dict[str, object]:
+    """Return the part's full catalog row, or {} where the catalog does not hold it.
+
+    A BOM line keeps only the fields its role's rules read; the loss-only figures (Qg, Cj,
+    leakage, core-loss data) come from the catalog where it still lists the part.
+    """
+    from partpick.errors import PartpickError
+
+    try:
+        return {k: v for k, v in find_part(db, role, mpn).items() if v is not None}
+    except PartpickError:
+        return {}
 
 
 def _read_bom(path: str | Path) -> dict[str, Any]:
