@@ -196,3 +196,18 @@ class ImportInterrupted(KeyboardInterrupt):
                 "(partpick batches lists it)"
             )
         return "interrupted before the commit; the catalog was not changed"
+
+
+@dataclass(eq=False)
+class NoCatalogError(PartpickError, FileNotFoundError):
+    """A reading command was pointed at a catalog that does not exist (only import makes one)."""
+
+    path: str
+    detail: str = ""
+
+    def __str__(self) -> str:
+        why = f" ({self.detail})" if self.detail else ""
+        return (
+            f"no catalog at {self.path}{why}; import first: "
+            f"partpick import FILE.csv --kind KIND --db {self.path}"
+        )

@@ -4,6 +4,7 @@ from __future__ import annotations
 
 import csv
 import io
+from pathlib import Path
 
 import pytest
 from rich.console import Console
@@ -106,6 +107,13 @@ def test_batches_lists_every_import(runner, db_file):
 
 
 def test_batches_on_an_empty_catalog_says_how_to_start(runner, db_file):
+    missing = runner.invoke(app, ["batches", "--db", db_file])
+    assert missing.exit_code == 2 and "no catalog at" in missing.output
+    assert "partpick import" in missing.output
+    assert not Path(db_file).exists()  # only import creates a catalog
+    from partpick.catalog.store import open_engine
+
+    open_engine(db_file)
     result = runner.invoke(app, ["batches", "--db", db_file])
     assert result.exit_code == 0 and "partpick import" in result.output
 

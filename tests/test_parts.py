@@ -166,6 +166,9 @@ def test_parts_errors_exit_2_without_traceback(runner, filled, args, code, messa
 
 
 def test_parts_table_on_an_empty_catalog(runner, db_file):
+    from partpick.catalog.store import open_engine
+
+    open_engine(db_file)  # a catalog with its tables and no parts
     result = runner.invoke(app, ["parts", "--kind", "diode", "--db", db_file])
     assert result.exit_code == 0, result.output
     assert "0 diode part(s)" in result.output

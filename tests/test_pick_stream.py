@@ -102,7 +102,10 @@ def test_jsonl_top_cuts_each_list(db):
 
 
 def test_empty_lists_stay_valid_json(tmp_path):
+    from partpick.catalog.store import open_engine
+
     empty = str(tmp_path / "empty.db")
+    open_engine(empty)  # a catalog with its tables and no parts
     result = run("--role", "diode", "--db", empty, "--format", "json")
     assert result.exit_code == 0, result.output
     data = json.loads(result.output)

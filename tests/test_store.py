@@ -16,6 +16,7 @@ from partpick.catalog.columns import read_columns
 from partpick.catalog.importer import import_catalog
 from partpick.catalog.location import snapshot_file
 from partpick.catalog.query import list_parts
+from partpick.catalog.snapshot import SNAPSHOT_VERSION
 from partpick.catalog.store import (
     count_parts,
     dispose_engines,
@@ -23,7 +24,7 @@ from partpick.catalog.store import (
     open_engine,
     resolve_db_url,
 )
-from partpick.errors import DatabaseError, NotFoundError
+from partpick.errors import DatabaseError, NoCatalogError, NotFoundError
 from tests.conftest import CATALOG_DATA
 
 SMALL = CATALOG_DATA / "inductors_small.csv"
@@ -218,13 +219,13 @@ def test_missing_or_damaged_snapshot_is_rebuilt(db_file, damage):
     else:
         snapshot.write_bytes(b"not an npz file")
     assert len(read_columns(db_file, "inductor")["mpn"]) == 6
-    assert np.load(snapshot)["__meta__"].size == 3
+    meta = list(np.load(snapshot)["__meta__"])
+    assert meta[1:3] == ["1", SNAPSHOT_VERSION] and {"mpn", "isat_a"} <= set(meta[3:])
 
 
-def test_read_columns_of_a_catalog_that_does_not_exist_is_empty(tmp_path):
-    cols = read_columns(str(tmp_path / "absent.db"), "capacitor", ["esr_ohm"])
-    assert set(cols) == {"mpn", "manufacturer", "esr_ohm"}
-    assert all(len(v) == 0 for v in cols.values())
+def test_read_columns_of_a_catalog_that_does_not_exist_is_refused(tmp_path):
+    with pytest.raises(NoCatalogError, match="import first"):
+        read_columns(str(tmp_path / "absent.db"), "capacitor", ["esr_ohm"])
     assert not (tmp_path / "absent.db").exists()
 
 

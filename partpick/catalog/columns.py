@@ -12,11 +12,13 @@ from __future__ import annotations
 
 import contextlib
 import sqlite3
+import zipfile
 from collections.abc import Sequence
 from pathlib import Path
 
 import numpy as np
 
+from partpick.catalog.integrity import CatalogFile, can_write, connect_read_only, inspect_catalog
 from partpick.catalog.location import generation_key, resolve_db_url, snapshot_file, sqlite_file
 from partpick.catalog.snapshot import (
     META,
@@ -25,6 +27,7 @@ from partpick.catalog.snapshot import (
     decode_field,
     encode_rows,
     save_members,
+    sweep_leftovers,
 )
 from partpick.errors import DatabaseError, NotFoundError
 from partpick.fields import KINDS, Field, fields_of
@@ -46,13 +49,27 @@ def read_columns(
     path = sqlite_file(url)
     if path is None:
         return _from_sql(url, kind, wanted)
-    if not path.exists():
-        return {f.name: _empty(f) for f in wanted}
-    stamp = _stamp(url, path, kind)
+    found = _checked_catalog(url, path)
+    sweep_leftovers(snapshot_file(path, kind).parent)  # what a killed import left behind
+    columns = found.columns_of(f"parts_{kind}")
+    stamp = (found.meta["db_uuid"], found.meta.get(generation_key(kind), "0"), *columns)
     arrays = _load_snapshot(snapshot_file(path, kind), stamp, wanted)
     if arrays is None:
         arrays = write_snapshot(url, kind)
     return {f.name: decode_field(arrays, f) for f in wanted}
+
+
+def _checked_catalog(url: str, path: Path) -> CatalogFile:
+    """Return the checked catalog file; add columns new fields need where it is writable."""
+    found = inspect_catalog(url, path)
+    expected = ("id", "kind", "manufacturer", "mpn")
+    for kind in KINDS:
+        present = found.columns_of(f"parts_{kind}")
+        lacking = [f.name for f in fields_of(kind) if f.name not in present]
+        if (lacking or any(c not in present for c in expected)) and can_write(path):
+            _upgrade_tables(url)
+            return inspect_catalog(url, path)
+    return found
 
 
 def _wanted_fields(kind: str, names: Sequence[str] | None) -> list[Field]:
@@ -72,42 +89,24 @@ def _empty(f: Field) -> np.ndarray:
     return np.empty(0, dtype=float if f.type in ("float", "int") else object)
 
 
-def _connect(path: Path) -> sqlite3.Connection:
-    conn = sqlite3.connect(f"file:{path}?mode=ro", uri=True, isolation_level=None)
-    conn.execute("PRAGMA query_only=ON")
-    return conn
+def _upgrade_tables(url: str) -> None:
+    from partpick.catalog.store import upgrade_schema
+
+    upgrade_schema(url)
 
 
-def _stamp(url: str, path: Path, kind: str) -> tuple[str, str]:
-    """Return (db_uuid, kind's generation), creating the catalog's tables first if it has none."""
-    for attempt in range(2):
-        try:
-            with contextlib.closing(_connect(path)) as conn:
-                rows = dict(conn.execute("SELECT key, value FROM catalog_meta").fetchall())
-                return rows["db_uuid"], rows.get(generation_key(kind), "0")
-        except (sqlite3.OperationalError, KeyError):
-            if attempt:
-                raise
-            _create_tables(url)
-        except sqlite3.DatabaseError as exc:
-            raise DatabaseError(url, f"cannot be read ({exc})") from None
-    raise AssertionError("unreachable")
-
-
-def _create_tables(url: str) -> None:
-    from partpick.catalog.store import open_engine
-
-    open_engine(url)
-
-
-def _load_snapshot(file: Path, stamp: tuple[str, str], wanted: list[Field]) -> dict | None:
+def _load_snapshot(file: Path, stamp: tuple[str, ...], wanted: list[Field]) -> dict | None:
+    """Return the snapshot's arrays if it was made from this catalog, generation and table."""
     try:
         archive = np.load(file, allow_pickle=False)
-    except (OSError, ValueError):
+    except (OSError, ValueError, EOFError, zipfile.BadZipFile):
         return None
     with archive:
-        meta = archive[META].tolist() if META in archive.files else []
-        if meta != [stamp[0], stamp[1], SNAPSHOT_VERSION]:
+        try:
+            meta = archive[META].tolist() if META in archive.files else []
+        except (OSError, ValueError, zipfile.BadZipFile):
+            return None
+        if meta != [stamp[0], stamp[1], SNAPSHOT_VERSION, *stamp[2:]]:
             return None
         keys = [f.name for f in wanted] + [MISSING + f.name for f in wanted]
         if any(f.name not in archive.files for f in wanted):
@@ -125,17 +124,49 @@ def write_snapshot(url: str, kind: str) -> dict[str, np.ndarray]:
     if path is None:
         raise DatabaseError(url, "a columnar snapshot needs an SQLite file database")
     fields = fields_of(kind)
-    with contextlib.closing(_connect(path)) as conn:
+    try:
+        meta, present, rows = _read_rows(path, kind, fields)
+    except sqlite3.Error as exc:
+        raise DatabaseError(url, f"cannot be read ({exc})") from None
+    arrays = _encoded(url, fields, rows)
+    generation = meta.get(generation_key(kind), "0")
+    arrays[META] = np.array([meta["db_uuid"], generation, SNAPSHOT_VERSION, *present])
+    with contextlib.suppress(OSError):  # a reader without write access reads from SQL each time
+        save_members(snapshot_file(path, kind), arrays.items())
+    return arrays
+
+
+def _read_rows(path: Path, kind: str, fields: list[Field]) -> tuple[dict, list[str], list]:
+    """Return the meta rows, the table's columns and every row, in one read transaction."""
+    with contextlib.closing(connect_read_only(path)) as conn:
         conn.execute("BEGIN")
         meta = dict(conn.execute("SELECT key, value FROM catalog_meta").fetchall())
-        names = ", ".join(f'"{f.name}"' for f in fields)
+        present = [r[1] for r in conn.execute(f"PRAGMA table_info(parts_{kind})")]
+        # a column the file lacks (a read-only catalog made before the field) reads as missing
+        names = ", ".join(f'"{f.name}"' if f.name in present else "NULL" for f in fields)
         rows = conn.execute(f"SELECT {names} FROM parts_{kind} ORDER BY id").fetchall()
         conn.execute("COMMIT")
-    arrays = encode_rows(fields, rows)
-    generation = meta.get(generation_key(kind), "0")
-    arrays[META] = np.array([meta["db_uuid"], generation, SNAPSHOT_VERSION])
-    save_members(snapshot_file(path, kind), arrays.items())
-    return arrays
+    return meta, present, rows
+
+
+def _encoded(url: str, fields: list[Field], rows: list[tuple]) -> dict[str, np.ndarray]:
+    """Return the snapshot arrays of ``rows``; a stored value of the wrong type is an error."""
+    try:
+        return encode_rows(fields, rows)
+    except (TypeError, ValueError):
+        pass
+    for f in fields:
+        if f.type not in ("float", "int"):
+            continue
+        for row in rows:
+            value = row[fields.index(f)]
+            if value is not None and not isinstance(value, (int, float)):
+                raise DatabaseError(
+                    url,
+                    f"part {row[0]!r} holds {value!r} in {f.name}, not a number; "
+                    "the file was changed outside partpick: re-import its catalog",
+                )
+    raise DatabaseError(url, "holds values partpick cannot read; re-import its catalogs")
 
 
 def _from_sql(url: str, kind: str, wanted: list[Field]) -> dict[str, np.ndarray]:

@@ -31,6 +31,7 @@ from partpick.catalog.location import generation_key, resolve_db_url, snapshot_f
 from partpick.catalog.reading import WHOLE_ROW, PreparedFile, Reject, prepare_file, read_chunks
 from partpick.catalog.snapshot import SnapshotBuilder, sweep_leftovers
 from partpick.catalog.spool import STDIN_NAME, spooled_inputs
+from partpick.catalog.tables import table_name
 from partpick.errors import (
     CatalogFormatError,
     DatabaseError,
@@ -189,6 +190,11 @@ def _transaction(db: str | None) -> Iterator:
     try:
         with light.begin():
             yield light
+        # Copy the WAL into the file, so the file alone holds the catalog: a teammate
+        # reading from a folder they cannot write opens it as immutable, which would not
+        # see parts still in the WAL. A busy reader only makes it a partial checkpoint.
+        with contextlib.suppress(sqlite3.Error):
+            light.raw.execute("PRAGMA wal_checkpoint(TRUNCATE)")
     finally:
         light.close()
 
@@ -233,10 +239,14 @@ def _snapshot_builder(db: str | None, kind: str, files: int) -> SnapshotBuilder 
         return None
 
 
-def _stamp_after_bump(conn: sa.Connection, kind: str) -> tuple[str, str]:
+def _stamp_after_bump(conn: sa.Connection, kind: str) -> tuple[str, ...]:
+    """Return (db_uuid, new generation, the table's columns...): what a snapshot is checked by."""
     generation = bump_generation(conn, kind)
     db_uuid = _run(conn, "SELECT value FROM catalog_meta WHERE key = 'db_uuid'").scalar_one()
-    return db_uuid, str(generation)
+    columns = []
+    if conn.dialect.name == "sqlite":  # snapshots exist for SQLite files only
+        columns = [row[1] for row in _run(conn, f"PRAGMA table_info({table_name(kind)})").all()]
+    return (db_uuid, str(generation), *columns)
 
 
 def bump_generation(conn: sa.Connection, kind: str) -> int:
@@ -411,7 +421,7 @@ def _start_batch(conn: sa.Connection, item: PreparedFile, imported_at: str) -> i
 
 
 def _refresh_snapshot(
-    db: str | None, kind: str, builder: SnapshotBuilder | None, stamp: tuple[str, str]
+    db: str | None, kind: str, builder: SnapshotBuilder | None, stamp: tuple[str, ...]
 ) -> None:
     """Write the columnar snapshot of ``kind`` after the commit.
 

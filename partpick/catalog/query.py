@@ -19,8 +19,8 @@ from pathlib import PurePath
 import sqlalchemy as sa
 
 from partpick.catalog.cells import BOOL_WORDS
+from partpick.catalog.reader import open_reader
 from partpick.catalog.schema import import_batches, parts_table
-from partpick.catalog.store import open_engine
 from partpick.errors import NotFoundError, QueryError, UnitError
 from partpick.fields import KINDS, PROVENANCE_COLUMNS, Field, fields_of, fold_text
 from partpick.units import is_missing, parse_quantity
@@ -123,7 +123,7 @@ def list_parts(
         ).outerjoin(import_batches, batches.id == table.c.batch_id)
     for condition in conditions:
         query = query.where(_clause(table, condition))
-    with open_engine(db).connect() as conn:
+    with open_reader(db).connect() as conn:
         rows = conn.execute(query).all()
     if provenance:
         return [_with_provenance(_row_dict(names, row), row[len(names) :]) for row in rows]

@@ -9,7 +9,8 @@ Each field is stored by its type:
   plus a bool mask ``__missing__<name>``. Splitting one decoded string is far faster than
   building or reading fixed-width unicode arrays.
 
-``__meta__`` holds (db_uuid, generation, format version) of the catalog it was made from.
+``__meta__`` holds (db_uuid, generation, format version, then the parts table's columns) of
+the catalog it was made from; a snapshot differing in any of them is stale and rebuilt.
 :class:`SnapshotBuilder` spills a bulk import's columns to files chunk by chunk, so the
 snapshot of a freshly loaded kind is written without reading the rows back and without
 holding them in memory. Standard library and numpy only (no pandas).
@@ -205,12 +206,12 @@ class SnapshotBuilder:
         """Mark the spilled rows as not the table's contents (the snapshot is then rebuilt)."""
         self.valid = False
 
-    def finish(self, stamp: tuple[str, str]) -> None:
-        """Write the snapshot stamped (db_uuid, generation) from the spilled columns."""
+    def finish(self, stamp: tuple[str, ...]) -> None:
+        """Write the snapshot stamped (db_uuid, generation, columns...) from the spills."""
         save_members(self.file, self._members(stamp))
 
-    def _members(self, stamp: tuple[str, str]) -> Iterator[tuple[str, np.ndarray]]:
-        yield META, np.array([stamp[0], stamp[1], SNAPSHOT_VERSION])
+    def _members(self, stamp: tuple[str, ...]) -> Iterator[tuple[str, np.ndarray]]:
+        yield META, np.array([stamp[0], stamp[1], SNAPSHOT_VERSION, *stamp[2:]])
         for f in self.fields:
             keys = [f.name] if f.type != "text" else [f.name, MISSING + f.name]
             for key in keys:

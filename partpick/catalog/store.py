@@ -13,6 +13,7 @@ from dataclasses import dataclass
 import sqlalchemy as sa
 from sqlalchemy import event, func, select
 
+from partpick.catalog.integrity import inspect_catalog
 from partpick.catalog.location import resolve_db_url, sqlite_file
 from partpick.catalog.schema import PARTS_TABLES, catalog_meta, import_batches, metadata
 from partpick.catalog.sqlite_light import apply_pragmas
@@ -57,6 +58,8 @@ def _new_engine(url: str) -> sa.Engine:
     path = sqlite_file(url)
     if path is not None and not path.parent.is_dir():
         raise DatabaseError(url, f"the folder {path.parent} does not exist")
+    if path is not None:
+        inspect_catalog(url, path, for_import=True)  # another program's database is refused
     options: dict = {}
     if path is None and url.startswith("sqlite"):
         # an in-memory catalog lives as long as its one connection: keep exactly one
@@ -116,22 +119,37 @@ def _add_missing_columns(conn: sa.Connection) -> None:
                 conn.exec_driver_sql(f'ALTER TABLE {table.name} ADD COLUMN "{column.name}" {kind}')
 
 
+def upgrade_schema(db: str | None) -> sa.Engine:
+    """Add the columns of fields added since the catalog was made; return its engine."""
+    engine = open_engine(db)
+    with engine.begin() as conn:
+        _add_missing_columns(conn)
+    return engine
+
+
 def dispose_engines() -> None:
     """Close every cached engine (tests use this between databases)."""
+    from partpick.catalog.reader import dispose_readers
+
     while _ENGINES:
         _ENGINES.popitem()[1].dispose()
+    dispose_readers()
 
 
 def list_batches(db: str | None) -> list[Batch]:
     """Return every import batch, oldest first."""
-    with open_engine(db).connect() as conn:
+    from partpick.catalog.reader import open_reader
+
+    with open_reader(db).connect() as conn:
         rows = conn.execute(select(import_batches).order_by(import_batches.c.id)).mappings()
         return [Batch(**row) for row in rows]
 
 
 def count_parts(db: str | None) -> dict[str, int]:
     """Return the number of parts of each kind, in the order of :data:`partpick.fields.KINDS`."""
-    with open_engine(db).connect() as conn:
+    from partpick.catalog.reader import open_reader
+
+    with open_reader(db).connect() as conn:
         return {
             kind: conn.execute(select(func.count()).select_from(PARTS_TABLES[kind])).scalar_one()
             for kind in KINDS
