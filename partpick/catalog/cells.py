@@ -52,6 +52,7 @@ class ColumnValues:
     values: np.ndarray
     bad: np.ndarray  # bool per cell
     reasons: np.ndarray  # object per cell: None or why the cell is not a value
+    conditions: np.ndarray | None = None  # object per cell: what "0.7 V @ 3 A" holds at
 
 
 def factorize(cells) -> tuple[np.ndarray, list]:
@@ -74,7 +75,9 @@ def convert_column(
         return _texts(cells)
     codes, uniques = factorize(cells)
     texts = ["" if u is None or u != u else str(u) for u in uniques]
+    conditions = None
     if f.type in ("float", "int"):
+        texts, conditions = split_conditions(texts)
         parsed, reasons = _numbers(texts, f, scale, decimal_comma)
     elif f.type == "enum":
         parsed, reasons = _enums(texts, f)
@@ -82,7 +85,30 @@ def convert_column(
         parsed, reasons = _bools(texts, f)
     reason_array = np.asarray(reasons, dtype=object)
     bad_unique = np.asarray([r is not None for r in reasons], dtype=bool)
-    return ColumnValues(parsed[codes], bad_unique[codes], reason_array[codes])
+    return ColumnValues(
+        parsed[codes],
+        bad_unique[codes],
+        reason_array[codes],
+        None if conditions is None else conditions[codes],
+    )
+
+
+def split_conditions(texts: list[str]) -> tuple[list[str], np.ndarray | None]:
+    """Return each text's quantity part and, per text, the condition after its "@".
+
+    "0.7 V @ 3 A" reads as 0.7 V held at "3 A"; "30 mOhm @ 5 A, 10 V" as 30 mΩ at
+    "5 A, 10 V". The conditions array is None when no text has one (the common case).
+    """
+    if not any("@" in text for text in texts):
+        return texts, None
+    values, conditions = [], []
+    for text in texts:
+        value, _, condition = text.partition("@")
+        if not value.strip():  # "@SUM(A1)" holds no quantity: read whole, and refused
+            value, condition = text, ""
+        values.append(value.strip() if condition else text)
+        conditions.append(condition.strip() or None)
+    return values, _object_array(conditions)
 
 
 # A plain number and a unit without digits ("4.7 uH", "45 mΩ max", "3.2"): the common cell.

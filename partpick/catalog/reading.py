@@ -333,19 +333,21 @@ def _validate(item: PreparedFile, frame: list[np.ndarray], lines: np.ndarray, do
     values: dict[str, np.ndarray] = {}
     bad = np.zeros(count, dtype=bool)
     rejects: list[Reject] = []
+    extra_columns = [(h, i) for i, h in enumerate(item.headers) if h in item.plan.unrecognised]
+    conditions: dict[tuple[str, str], np.ndarray] = {}
     for match in item.plan.matches:
         column = _convert(frame, match, item)
         values[match.field] = column.values
         bad |= column.bad
         rejects.extend(_cell_rejects(frame[match.position], column, lines, match.header))
+        extra_columns += _condition_column(conditions, count, match, column)
     _apply_constants(values, item, count)
     missing_mpn = _is_none(values["mpn"])
     for row in np.flatnonzero(missing_mpn & ~bad):
         rejects.append(Reject(int(lines[row]), item.mpn_header, "", "the part number is missing"))
     bad |= missing_mpn
     good = ~bad
-    unrecognised = [(h, i) for i, h in enumerate(item.headers) if h in item.plan.unrecognised]
-    values["extra"] = extra_json(frame, unrecognised, count)
+    values["extra"] = extra_json({**dict(enumerate(frame)), **conditions}, extra_columns, count)
     values["manufacturer"] = _manufacturer(values.get("manufacturer"), count)
     if good.all():  # the common case: no copy of every column
         return Chunk(values, lines, rejects, count, done)
@@ -358,6 +360,23 @@ def _is_none(column: np.ndarray) -> np.ndarray:
     if column.dtype.kind == "f":
         return np.isnan(column)
     return np.equal(column, None)
+
+
+def _condition_column(
+    conditions: dict, count: int, match: ColumnMatch, column: ColumnValues
+) -> list[tuple[str, object]]:
+    """Put in ``conditions`` what each cell of ``match`` was measured at: the cell's own
+    condition ("0.7 V @ 3 A"), else the header's ("RDS(on) @ 10V"); return its (extra-data
+    key, cells key), or nothing when there is no condition at all."""
+    header = match.condition.lstrip("@").strip() or None
+    if column.conditions is None and header is None:
+        return []
+    cells = column.conditions if column.conditions is not None else np.full(count, None)
+    if header is not None:
+        cells = np.where(np.equal(cells, None), header, cells)
+    key = ("condition", match.field)
+    conditions[key] = cells
+    return [(f"{match.field} condition", key)]
 
 
 def _manufacturer(column: np.ndarray | None, count: int) -> np.ndarray:
