@@ -81,6 +81,11 @@ class ImportReport:
     constants: tuple[str, ...]
     unread: tuple[Unread, ...] = ()  # the unrecognised headers, with what might settle them
 
+    @property
+    def fields_present(self) -> tuple[str, ...]:
+        """Return every field the file gives a value for: its columns and map constants."""
+        return tuple(dict.fromkeys([m.field for m in self.columns] + list(self.constants)))
+
 
 ProgressHook = Callable[[ImportProgress], None]
 

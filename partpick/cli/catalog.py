@@ -16,6 +16,7 @@ from partpick.cli.common import DbOption, friendly_errors
 from partpick.errors import ImportInterrupted, StrictImportError
 from partpick.outputs import resolve_output
 from partpick.render.catalog import (
+    import_json,
     import_progress,
     parts_csv,
     parts_json,
@@ -25,6 +26,11 @@ from partpick.render.catalog import (
     write_rejects_csv,
 )
 from partpick.render.console import make_console
+
+
+class ImportFormat(StrEnum):
+    table = "table"
+    json = "json"
 
 
 class PartsFormat(StrEnum):
@@ -52,10 +58,19 @@ def import_command(
     strict: Annotated[
         bool, typer.Option("--strict", help="Import nothing if any row is rejected (exit 1).")
     ] = False,
+    output: Annotated[
+        ImportFormat,
+        typer.Option(
+            "--format",
+            help="table, or json: per file the header map, unread headers with hints, "
+            "missing fields with the rules they cost, and the counts.",
+        ),
+    ] = ImportFormat.table,
     db: DbOption = None,
 ) -> None:
     """Import CSV catalog files; every file of one call goes in one transaction."""
     from partpick.catalog.importer import import_catalog  # pandas and SQLAlchemy: load late
+    from partpick.screening.coverage import coverage_gaps
 
     if rejects is not None:  # a bad rejects path is refused before anything is imported
         resolve_output(rejects, "--rejects")
@@ -78,7 +93,11 @@ def import_command(
             typer.echo(f"wrote {rejects}", err=True)
         raise
     try:
-        render_import_reports(console, reports)
+        gaps = [coverage_gaps(r.kind, r.fields_present) for r in reports]
+        if output is ImportFormat.json:
+            typer.echo(import_json(reports, gaps))
+        else:
+            render_import_reports(console, reports, gaps=gaps)
         if rejects is not None:
             typer.echo(f"wrote {rejects}", err=True)
     except KeyboardInterrupt:

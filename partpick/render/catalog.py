@@ -27,7 +27,9 @@ if TYPE_CHECKING:  # the catalog core pulls in pandas and SQLAlchemy; only comma
     from partpick.catalog.headers import Unread
     from partpick.catalog.importer import ImportProgress, ImportReport, Reject
     from partpick.catalog.store import Batch
+    from partpick.screening.coverage import FieldGap
 
+_JSON_REJECTS = 100  # the rest are in --rejects OUT.csv
 REJECT_COLUMNS = ("line", "column", "value", "reason")
 # OWASP "CSV Injection": a cell starting with one of these may run as a spreadsheet formula.
 _FORMULA_LEADS = ("=", "+", "-", "@", "\t", "\r")
@@ -62,9 +64,13 @@ def import_progress(
 
 
 def render_import_reports(
-    console: Console, reports: Sequence[ImportReport], shown: int = 10
+    console: Console,
+    reports: Sequence[ImportReport],
+    shown: int = 10,
+    gaps: Sequence[Sequence[FieldGap]] | None = None,
 ) -> None:
-    """Print the summary table of an import, then its columns and first rejects."""
+    """Print the summary table of an import, then per file its columns, what the missing
+    columns cost (``gaps``, one sequence per report) and its first rejects."""
     table = Table(title="Import summary", title_style=STYLE_HEADING)
     for name in ("file", "kind", "rows", "added", "updated", "unchanged", "rejected"):
         table.add_column(name, justify="left" if name in ("file", "kind") else "right")
@@ -73,8 +79,10 @@ def render_import_reports(
         table.add_row(Path(r.file).name, r.kind, str(r.rows), str(r.added), str(r.updated),
                       str(r.unchanged), rejected)  # fmt: skip
     console.print(table)
-    for r in reports:
+    for i, r in enumerate(reports):
         _render_columns(console, r)
+        for sentence in coverage_sentences(gaps[i] if gaps else (), parts_of(r)):
+            console.print(f"[{STYLE_UNVERIFIED}]  {escape(sentence)}[/]")
         if r.rejects:
             _render_rejects(console, r, shown)
 
@@ -101,6 +109,76 @@ def _render_columns(console: Console, report: ImportReport) -> None:
         console.print(
             f"[{STYLE_MUTED}]  ignored by the map file: {escape(', '.join(report.ignored))}[/]"
         )
+
+
+def parts_of(report: ImportReport) -> int:
+    """Return how many parts of the file are in the catalog after the import."""
+    return report.added + report.updated + report.unchanged
+
+
+def coverage_sentences(gaps: Sequence[FieldGap], parts: int) -> list[str]:
+    """Return one sentence per missing field: which checks it costs the file's parts."""
+    if parts == 0:
+        return []
+    these = "this part" if parts == 1 else f"these {parts} parts"
+    every = "the one part" if parts == 1 else f"all {parts} parts"
+    out = []
+    for gap in gaps:
+        if gap.unverified_roles:
+            roles = " and ".join(gap.unverified_roles)
+            rules = ", ".join(dict.fromkeys(g.rule for g in gap.rules if not g.optional))
+            noun = "role" if len(gap.unverified_roles) == 1 else "roles"
+            text = f"{every} will be unverified for the {roles} {noun} ({rules} check)"
+        else:
+            rules = " and ".join(dict.fromkeys(g.rule for g in gap.skipped))
+            text = f"the {rules} check is skipped for {these}"
+        out.append(f"no column for {gap.field}: {text}")
+    return out
+
+
+def import_json(reports: Sequence[ImportReport], gaps: Sequence[Sequence[FieldGap]]) -> str:
+    """Return the import as JSON: per file the header map, the unread headers with their
+    hints, the missing fields with the rules they cost, the counts and the first rejects."""
+    return json_text([_import_document(r, g) for r, g in zip(reports, gaps, strict=True)])
+
+
+def _import_document(report: ImportReport, gaps: Sequence[FieldGap]) -> dict[str, object]:
+    sentences = coverage_sentences(gaps, parts_of(report)) or [None] * len(gaps)
+    return {
+        "file": report.file,
+        "kind": report.kind,
+        "sha256": report.sha256,
+        "encoding": report.encoding,
+        "delimiter": report.delimiter,
+        "counts": {
+            "rows": report.rows, "parts": parts_of(report), "added": report.added,
+            "updated": report.updated, "unchanged": report.unchanged,
+            "rejected": report.rejected,
+        },
+        "columns": [
+            {"header": m.header, "field": m.field, "unit": m.unit_text, "scale": m.scale,
+             "matched_by": m.via, "condition": m.condition or None}
+            for m in report.columns
+        ],
+        "unread": [
+            {"header": u.header, "candidates": list(u.candidates), "reason": u.reason,
+             "map_line": u.map_line or None}
+            for u in report.unread
+        ],
+        "ignored": list(report.ignored),
+        "constants": list(report.constants),
+        "missing": [
+            {"field": g.field, "unverified_roles": list(g.unverified_roles),
+             "rules": [{"role": r.role, "rule": r.rule, "optional": r.optional}
+                       for r in g.rules],
+             "consequence": sentence}
+            for g, sentence in zip(gaps, sentences, strict=True)
+        ],
+        "rejects": [
+            {"line": r.line, "column": r.column, "value": r.value, "reason": r.reason}
+            for r in report.rejects[:_JSON_REJECTS]
+        ],
+    }  # fmt: skip
 
 
 def unread_hints(unread: Sequence[Unread]) -> list[str]:

@@ -35,6 +35,7 @@ import numpy as np
 
 from partpick.losses import capacitor_esr_loss_w
 from partpick.screening.checks import (
+    RuleNeeds,
     RuleResult,
     Screen,
     lifecycle_notes,
@@ -65,6 +66,14 @@ FIELDS: tuple[str, ...] = (
     "bias_v",
 )
 CORE: tuple[str, ...] = ("esr_ohm", "ripple_a")
+# what each rule reads (the import coverage report says what a file without them costs)
+RULES: tuple[RuleNeeds, ...] = (
+    RuleNeeds("voltage", ("voltage_v",)),
+    RuleNeeds("ripple-voltage", ("esr_ohm", "capacitance_f")),
+    RuleNeeds("ripple-current", ("ripple_a",)),
+    RuleNeeds("temperature", ("temp_max_degc",), optional=True),
+    RuleNeeds("lifecycle", ("lifecycle",), optional=True),
+)
 USES_OUTPUT = ("duty_max", "il_peak_max_a", "icout_rms_max_a", "cout_min_f", "esr_max_ohm")
 USES_INPUT = ("il_ripple_max_a", "icin_rms_max_a")
 _KELVIN = 273.15

@@ -17,6 +17,17 @@ PASS, FAIL, UNVERIFIED, SKIPPED = 0, 1, 2, 3
 STATUS_TEXT = {PASS: "pass", FAIL: "fail", UNVERIFIED: "unverified"}
 
 
+@dataclass(frozen=True)
+class RuleNeeds:
+    """What one rule of a role reads from the catalog, declared beside the rule module's
+    FIELDS: a part lacking one of ``fields`` is unverified for the role, or, for an
+    ``optional`` rule, simply not checked by it. The import coverage report reads these."""
+
+    rule: str
+    fields: tuple[str, ...]
+    optional: bool = False
+
+
 @dataclass(frozen=True, slots=True)
 class Requirement:
     """A rating a part must have, such as ``isat_a >= 5.4`` (A): data for a search line.

@@ -26,6 +26,7 @@ import numpy as np
 
 from partpick.losses import diode_conduction_loss_w, diode_recovery_loss_w
 from partpick.screening.checks import (
+    RuleNeeds,
     RuleResult,
     Screen,
     lifecycle_notes,
@@ -54,6 +55,14 @@ FIELDS: tuple[str, ...] = (
     "lifecycle",
 )
 CORE: tuple[str, ...] = ("theta_ja_degc_w", "tj_max_degc")
+# what each rule reads (the import coverage report says what a file without them costs)
+RULES: tuple[RuleNeeds, ...] = (
+    RuleNeeds("reverse-voltage", ("vrrm_v",)),
+    RuleNeeds("forward-current", ("if_avg_a",)),
+    RuleNeeds("thermal", ("theta_ja_degc_w", "tj_max_degc", "vf_v", "qrr_c")),
+    RuleNeeds("recovery", ("diode_type",), optional=True),
+    RuleNeeds("lifecycle", ("lifecycle",), optional=True),
+)
 USES: tuple[str, ...] = ("vd_reverse_max_v", "id_avg_a", "id_peak_max_a")
 _NO_STORED_CHARGE = ("schottky", "sic")
 

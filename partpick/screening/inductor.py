@@ -23,6 +23,7 @@ import numpy as np
 
 from partpick.losses import inductor_dcr_loss_w
 from partpick.screening.checks import (
+    RuleNeeds,
     RuleResult,
     Screen,
     finish_rule,
@@ -50,6 +51,14 @@ FIELDS: tuple[str, ...] = (
     "lifecycle",
 )
 CORE: tuple[str, ...] = ("isat_a", "irms_a")
+# what each rule reads (the import coverage report says what a file without them costs)
+RULES: tuple[RuleNeeds, ...] = (
+    RuleNeeds("inductance", ("inductance_h",)),
+    RuleNeeds("saturation", ("isat_a",)),
+    RuleNeeds("rms", ("irms_a",)),
+    RuleNeeds("srf", ("srf_hz",), optional=True),
+    RuleNeeds("lifecycle", ("lifecycle",), optional=True),
+)
 USES: tuple[str, ...] = ("l_min_h", "l_max_h", "il_avg_max_a", "il_peak_max_a", "il_rms_max_a")
 
 

@@ -22,6 +22,7 @@ from partpick.screening.checks import (
     FAIL,
     UNVERIFIED,
     Outcome,
+    RuleNeeds,
     Screen,
     core_data_rule,
     python_floats,
@@ -50,19 +51,26 @@ class RoleRules:
     fields: tuple[str, ...]
     core: tuple[str, ...]
     screen: Callable[..., Screen]
+    rules: tuple[RuleNeeds, ...] = ()  # what each rule reads, from the rule module
 
 
 ROLE_RULES: dict[str, RoleRules] = {
-    "inductor": RoleRules(ROLE_KINDS["inductor"], inductor.FIELDS, inductor.CORE, inductor.screen),
+    "inductor": RoleRules(
+        ROLE_KINDS["inductor"], inductor.FIELDS, inductor.CORE, inductor.screen, inductor.RULES
+    ),
     "input-cap": RoleRules(
-        ROLE_KINDS["input-cap"], capacitor.FIELDS, capacitor.CORE, capacitor.screen_input
+        ROLE_KINDS["input-cap"], capacitor.FIELDS, capacitor.CORE, capacitor.screen_input,
+        capacitor.RULES,
     ),
     "output-cap": RoleRules(
-        ROLE_KINDS["output-cap"], capacitor.FIELDS, capacitor.CORE, capacitor.screen_output
+        ROLE_KINDS["output-cap"], capacitor.FIELDS, capacitor.CORE, capacitor.screen_output,
+        capacitor.RULES,
     ),
-    "diode": RoleRules(ROLE_KINDS["diode"], diode.FIELDS, diode.CORE, diode.screen),
-    "switch": RoleRules(ROLE_KINDS["switch"], switch.FIELDS, switch.CORE, switch.screen),
-}
+    "diode": RoleRules(ROLE_KINDS["diode"], diode.FIELDS, diode.CORE, diode.screen, diode.RULES),
+    "switch": RoleRules(
+        ROLE_KINDS["switch"], switch.FIELDS, switch.CORE, switch.screen, switch.RULES
+    ),
+}  # fmt: skip
 __all__ = ["ROLES", "ROLE_RULES", "PickResult", "RankedRole", "Explanation", "pick", "rank_role",
            "explain"]  # fmt: skip
 

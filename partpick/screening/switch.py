@@ -34,6 +34,7 @@ from partpick.losses import (
     switch_transition_time_s,
 )
 from partpick.screening.checks import (
+    RuleNeeds,
     RuleResult,
     Screen,
     flag_rule,
@@ -64,6 +65,14 @@ FIELDS: tuple[str, ...] = (
     "lifecycle",
 )
 CORE: tuple[str, ...] = ("theta_ja_degc_w", "tj_max_degc", "qgd_c")
+# what each rule reads (the import coverage report says what a file without them costs)
+RULES: tuple[RuleNeeds, ...] = (
+    RuleNeeds("drain-voltage", ("vds_v",)),
+    RuleNeeds("drain-current", ("id_a",)),
+    RuleNeeds("channel", ("channel",), optional=True),
+    RuleNeeds("thermal", ("theta_ja_degc_w", "tj_max_degc", "rds_on_ohm", "qgd_c")),
+    RuleNeeds("lifecycle", ("lifecycle",), optional=True),
+)
 USES: tuple[str, ...] = ("vsw_max_v", "il_peak_max_a", "il_avg_max_a", "isw_rms_max_a")
 
 
