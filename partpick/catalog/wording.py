@@ -153,7 +153,8 @@ def parse_wording(header: str) -> Wording:
     text = header.replace("\u00a0", " ").strip()
     text = text.replace("Θ", "θ").replace("ϑ", "θ").replace("θ", "theta")
     text = text.replace("ω", "Ω").replace("\u039c", "µ")  # an Ω or µ put in another case
-    text = text.replace("α", " alpha ").replace("β", " beta ")
+    for letter, name in (("α", "alpha"), ("Α", "alpha"), ("β", "beta"), ("Β", "beta")):
+        text = text.replace(letter, f" {name} ")
     text = text.replace("#", " no ")
     units: list[str] = []
     conditions: list[str] = []
