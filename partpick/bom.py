@@ -14,16 +14,17 @@ from dataclasses import dataclass, field
 import numpy as np
 
 from partpick import losses
+from partpick.bom_losses import cross_part_losses
 from partpick.design.cautions import stored_energy_j
 from partpick.design.spec import Spec
 from partpick.design.topologies import get_topology
 from partpick.design.topologies.base import Caution, Envelope
 from partpick.screening.checks import Outcome, Requirement
-from partpick.screening.diode import diode_loss_w
 from partpick.screening.pick import ROLES, PickResult, pick
 from partpick.screening.profiles import Profile
 from partpick.screening.switch import switch_loss_w
 from partpick.units import format_eng
+from partpick.verify.terms import NotIncluded
 
 DESIGNATORS: dict[str, str] = {
     "inductor": "L1",
@@ -109,10 +110,16 @@ class Bom:
     efficiency: float
     ripple: StageRipple | None
     loss_notes: tuple[str, ...] = ()
+    not_included: tuple[NotIncluded, ...] = ()
     verification: object | None = None  # a partpick.verify VerifyResult
     verification_note: str | None = None
     picks: dict[str, PickResult] = field(default_factory=dict, repr=False)
     build_qty: int = 1
+
+    @property
+    def efficiency_is_upper_bound(self) -> bool:
+        """True where a loss term was left out for want of data: the true efficiency is lower."""
+        return bool(self.not_included)
 
     @property
     def complete(self) -> bool:
@@ -208,7 +215,10 @@ def build_bom(
         lines = tuple(_choose_line(picks[role], alternates) for role in ROLES)
         lines = with_purchasing(db, lines)
         envelope = picks[ROLES[0]].envelope
-        role_losses, notes = estimate_losses(round_spec, lines, profile, envelope)
+        estimate = estimate_stage_losses(
+            round_spec, lines, profile, envelope, chosen_figures(db, lines)
+        )
+        role_losses, notes = estimate.losses_w, estimate.notes
         pout_w = round_spec.vout_v * round_spec.iout_a
         estimated = float(losses.efficiency_from_losses(pout_w, sum(role_losses.values())))
         choice = {line.role: line.choice.mpn if line.choice else None for line in lines}
@@ -232,6 +242,7 @@ def build_bom(
         efficiency=rounds[-1].efficiency_estimated,
         ripple=stage_ripple(round_spec, lines, profile, envelope),
         loss_notes=notes,
+        not_included=estimate.not_included,
         picks=picks,
         verification=verification,
         verification_note=verification_note,
@@ -314,14 +325,46 @@ def _part_value(line: BomLine, name: str) -> float:
 
 
 def estimate_losses(
-    spec: Spec, lines: tuple[BomLine, ...], profile: Profile, envelope: Envelope | None = None
+    spec: Spec,
+    lines: tuple[BomLine, ...],
+    profile: Profile,
+    envelope: Envelope | None = None,
+    figures: Mapping[str, Mapping[str, object]] | None = None,
 ) -> tuple[dict[str, float], tuple[str, ...]]:
     """Return the loss of each role with the chosen parts, in W, and notes on what was left out.
 
+    See :func:`estimate_stage_losses`; this drops the structured list of terms not included
+    (each also has a note).
+    """
+    estimate = estimate_stage_losses(spec, lines, profile, envelope, figures)
+    return estimate.losses_w, estimate.notes
+
+
+@dataclass(frozen=True)
+class StageLosses:
+    """The BOM's loss estimate: watts per role, notes, and the terms left out for want of data."""
+
+    losses_w: dict[str, float]
+    notes: tuple[str, ...]
+    not_included: tuple[NotIncluded, ...]
+
+
+def estimate_stage_losses(
+    spec: Spec,
+    lines: tuple[BomLine, ...],
+    profile: Profile,
+    envelope: Envelope | None = None,
+    figures: Mapping[str, Mapping[str, object]] | None = None,
+) -> StageLosses:
+    """Return the loss of each role with the chosen parts, in W, and what was left out.
+
     The stresses are recomputed at the chosen inductor's nominal inductance, so the capacitor
     ripple currents are those of the real set. Each term is evaluated at its worst input
-    voltage, so the total is an upper estimate. ``envelope`` is the spec's, when the caller
-    already has it.
+    voltage, so the total is an upper estimate, but only of the terms included: a term whose
+    figure is missing is listed in ``not_included``. The diode's recovered charge and junction
+    capacitance are booked to the switch, and gate drive and the controller have rows of their
+    own (:mod:`partpick.bom_losses`). ``envelope`` is the spec's, when the caller already has
+    it; ``figures`` the chosen parts' full catalog rows by role (default: the lines' fields).
     """
     by_role: Mapping[str, BomLine] = {line.role: line for line in lines}
     topology = get_topology(spec.topology)
@@ -344,33 +387,54 @@ def estimate_losses(
             _part_value(by_role["output-cap"], "esr_ohm"),
             max(by_role["output-cap"].qty, 1),
         ),
-        "diode": _diode_loss_w(spec, envelope, by_role["diode"]),
+        # the recovered charge heats the switch, not the diode (bom_losses)
+        "diode": losses.diode_conduction_loss_w(_part_value(by_role["diode"], "vf_v"), spec.iout_a),
         "switch": _switch_loss_w(spec, envelope, by_role["switch"], stress.isw_rms_a[0], profile),
     }
-    notes = tuple(
+    notes = [
         f"{role}: loss not estimated (a figure is missing or no part was chosen)"
         for role, value in terms.items()
         if not np.isfinite(value)
+    ]
+    chosen = figures if figures is not None else _line_fields(lines)
+    added, gaps, extra_notes = cross_part_losses(
+        spec, envelope, float(stress.il_ripple_a[0]), chosen
     )
-    return {role: float(v) if np.isfinite(v) else 0.0 for role, v in terms.items()}, notes
+    watts = {role: float(v) if np.isfinite(v) else 0.0 for role, v in terms.items()}
+    for role, value in added.items():
+        watts[role] = watts.get(role, 0.0) + value
+    notes += extra_notes
+    notes += [f"not included: {gap.figure} missing for {gap.part}" for gap in gaps]
+    return StageLosses(watts, tuple(notes), gaps)
+
+
+def _line_fields(lines: tuple[BomLine, ...]) -> dict[str, Mapping[str, object]]:
+    return {
+        line.role: {"mpn": line.choice.mpn, **line.choice.part}
+        for line in lines
+        if line.choice is not None
+    }
+
+
+def chosen_figures(db: str | None, lines: tuple[BomLine, ...]) -> dict[str, dict[str, object]]:
+    """Return the chosen parts' full catalog rows by role (the lines' fields on top)."""
+    from partpick.verify.parts import full_part
+
+    return {
+        line.role: full_part(db, line.role, line.choice.mpn, line.choice.part)
+        for line in lines
+        if line.choice is not None and line.role in ("inductor", "diode", "switch")
+    } | {
+        line.role: {"mpn": line.choice.mpn, **line.choice.part}
+        for line in lines
+        if line.choice is not None and line.role not in ("inductor", "diode", "switch")
+    }
 
 
 def _known_or_zero(line: BomLine, name: str) -> float:
     """Return an optional loss figure of the chosen part, 0 where the catalog lacks it."""
     value = _part_value(line, name)
     return value if np.isfinite(value) else 0.0
-
-
-def _diode_loss_w(spec: Spec, envelope: Envelope, line: BomLine) -> float:
-    return float(
-        diode_loss_w(
-            _part_value(line, "vf_v"),
-            spec.iout_a,
-            _known_or_zero(line, "qrr_c"),
-            envelope.value("vd_reverse_max_v"),
-            spec.fsw_hz,
-        )
-    )
 
 
 def _switch_loss_w(

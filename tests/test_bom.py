@@ -35,7 +35,7 @@ from pathlib import Path
 import pytest
 from typer.testing import CliRunner
 
-from partpick.bom import BomLine, build_bom, estimate_losses
+from partpick.bom import BomLine, build_bom, estimate_losses, estimate_stage_losses
 from partpick.catalog.importer import import_catalog
 from partpick.cli import app
 from partpick.design.spec import load_spec
@@ -202,7 +202,11 @@ def test_dcr_only_loss_estimate_matches_the_averaged_model(
     assert duty == pytest.approx(1 - vin_v / 24.0)
     eta = efficiency_from_losses(24.0 * 1.0, sum(role_losses.values()))
     assert eta == pytest.approx(expected, abs=5e-4)
-    assert len(notes) == 4  # every other role's loss is said to be left out
+    # every other role's loss is said to be left out, and each loss-only term with it
+    assert len([n for n in notes if "loss not estimated" in n]) == 4
+    gaps = estimate_stage_losses(spec, lines, standard).not_included
+    missing = {"core", "recovery", "diode_cj", "gate_drive", "leakage", "coss"}
+    assert {g.term for g in gaps} == missing
 
 
 def test_markdown_report_has_its_sections_and_rows(db, standard):

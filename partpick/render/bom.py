@@ -115,7 +115,7 @@ def efficiency_sentence(bom: Bom) -> str:
         return f"{used}; no efficiency estimate for an incomplete set."
     rounds = len(bom.rounds)
     return (
-        f"{used}; the chosen parts' losses give an estimated {percent(bom.efficiency, 1)} "
+        f"{used}; the chosen parts' losses give an estimated {efficiency_text(bom)} "
         f"({rounds} round{'s' if rounds > 1 else ''})."
     )
 
@@ -375,12 +375,19 @@ def ripple_line(bom: Bom) -> str | None:
     )
 
 
+def efficiency_text(bom: Bom) -> str:
+    """Return the BOM's efficiency, "≤ 94.1 % (upper bound)" where a loss term is missing."""
+    if bom.efficiency_is_upper_bound:
+        return f"≤ {percent(bom.efficiency, 1)} (upper bound)"
+    return percent(bom.efficiency, 1)
+
+
 def _summary_lines(bom: Bom) -> Text:
     text = Text("losses and totals", style=STYLE_HEADING)
     status = totals_status(bom)
     if status is None:
         text.append(f"\n{loss_line(bom)}", style=None)
-        text.append(f"\nefficiency (estimate) {percent(bom.efficiency, 1)}; {cost_sentence(bom)}",
+        text.append(f"\nefficiency (estimate) {efficiency_text(bom)}; {cost_sentence(bom)}",
                     style=None)  # fmt: skip
     else:
         text.append(f"\n{status}: no efficiency or cost for a design with empty roles",
@@ -404,7 +411,7 @@ def _summary_table(bom: Bom) -> Table:
         table.add_row(f"loss, {role}", eng(loss, "W"))
     table.add_row("loss, total", eng(bom.total_loss_w, "W"))
     if status is None:
-        table.add_row("efficiency (estimate)", percent(bom.efficiency, 1))
+        table.add_row("efficiency (estimate)", efficiency_text(bom))
     for note in bom.loss_notes:
         table.add_row(Text(note, style=STYLE_UNVERIFIED), "")
     if bom.ripple is not None:

@@ -10,6 +10,7 @@ from partpick.render.bom import (
     LINE_COLUMNS,
     cost_sentence,
     efficiency_sentence,
+    efficiency_text,
     eng,
     line_header,
     line_notes,
@@ -147,6 +148,8 @@ def bom_document(bom: Bom) -> dict:
         "losses_w": dict(bom.losses_w),
         "total_loss_w": bom.total_loss_w,
         "efficiency": bom.efficiency if bom.complete else None,
+        "efficiency_is_upper_bound": bom.efficiency_is_upper_bound,
+        "not_included": [gap.to_dict() for gap in bom.not_included],
         "efficiency_used": bom.spec.efficiency,
         "rounds": [dataclasses.asdict(r) for r in bom.rounds],
         "ripple": dataclasses.asdict(bom.ripple) if bom.ripple else None,
@@ -283,7 +286,8 @@ def _loss_rows(bom: Bom) -> list[list[str]]:
     rows += [[f"loss, {role}", eng(v, "W")] for role, v in bom.losses_w.items()]
     rows.append(["loss, total", eng(bom.total_loss_w, "W")])
     if status is None:
-        rows.append(["efficiency (estimate)", percent(bom.efficiency, 1)])
+        rows.append(["efficiency (estimate)", efficiency_text(bom)])
+    rows += [["note", markdown_text(note)] for note in bom.loss_notes]
     rows += [[f"round {r.number}", round_sentence(r).partition(": ")[2]] for r in bom.rounds]
     if status is None:
         rows.append(["total cost", cost_sentence(bom).removeprefix("total cost ")])
