@@ -165,3 +165,17 @@ def test_profile_is_frozen():
     prof = load_profile("standard")
     with pytest.raises(TypeError):
         prof.figures["inductor.rms_use"] = 1.0  # type: ignore[index]
+
+
+def test_a_misspelt_profile_key_is_answered_with_the_valid_keys(tmp_path):
+    # common practice, no published source: an error names what would have been accepted
+    path = tmp_path / "company.toml"
+    path.write_text('extends = "standard"\n[inductor]\nsaturaton_use = 0.7\n', encoding="utf-8")
+    with pytest.raises(ProfileError) as caught:
+        load_profile(str(path))
+    text = str(caught.value)
+    assert "did you mean 'inductor.saturation_use'?" in text
+    assert "valid keys in [inductor]: rms_use, saturation_use" in text
+    path.write_text('extends = "standard"\n[inductr]\nx = 1\n', encoding="utf-8")
+    with pytest.raises(ProfileError, match="valid sections: capacitor, diode, inductor, switch"):
+        load_profile(str(path))

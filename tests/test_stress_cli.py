@@ -173,3 +173,14 @@ def test_another_command_takes_a_spec_with_one_decorator():
     assert isinstance(seen["spec"], Spec) and seen["spec"].fsw_hz == 1e6
     bad = CliRunner().invoke(toy, ["probe", "inductor", LOGGER, "--vout", "1"])
     assert bad.exit_code == 2 and "'vout'" in bad.stderr
+
+
+def test_the_ripple_at_l_min_is_one_row():
+    # The ripple at l_min is, by the sizing, hi·IL(vin_min) (Erickson & Maksimovic ch. 2,
+    # inductor ripple; issue 3's window): one figure, printed once.
+    from partpick.design.spec import load_spec
+    from partpick.design.topologies import analyse
+
+    spec = load_spec(Path(__file__).parents[1] / "catalogs" / "scenarios" / "field-logger.toml")
+    labels = [fig.label for fig in analyse(spec).figures.values()]
+    assert sum("ripple" in label and "l_min" in label for label in labels) == 1

@@ -228,9 +228,24 @@ def _flatten(raw: Mapping[str, object], label: str, prefix: str = "") -> dict[st
             figures[dotted] = _check_dc_bias_point(value, dotted, label)
             continue
         if dotted not in SCHEMA:
-            raise ProfileError(label, "is not a profile figure", dotted)
+            raise ProfileError(label, f"is not a profile figure; {valid_keys_hint(dotted)}", dotted)
         figures[dotted] = _check_value(value, dotted, label)
     return figures
+
+
+def valid_keys_hint(key: str) -> str:
+    """Return the valid keys near ``key``: a close spelling, then its section's keys."""
+    import difflib
+
+    close = difflib.get_close_matches(key, list(SCHEMA), n=1, cutoff=0.75)
+    lead = f"did you mean {close[0]!r}? " if close else ""
+    section = key.partition(".")[0]
+    same = sorted(k for k in SCHEMA if k.startswith(f"{section}.") or k == section)
+    if same:
+        return f"{lead}valid keys in [{section}]: {', '.join(k.partition('.')[2] for k in same)}"
+    sections = sorted({k.partition(".")[0] for k in SCHEMA if "." in k})
+    top = sorted(k for k in SCHEMA if "." not in k)
+    return f"{lead}valid sections: {', '.join(sections)}; valid top-level keys: {', '.join(top)}"
 
 
 def _check_value(value: object, key: str, label: str) -> float:

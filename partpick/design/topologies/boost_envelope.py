@@ -121,10 +121,7 @@ def _add_inductor(
         ("il_rms_max_a", "il_rms", "RMS current at l_min"),
     ):
         add(key, worst[name][0][0], "A", "inductor", label, worst[name][1][0])
-    ripple = spec.ripple_ratio_hi * il_at_vin_min
-    add(
-        "ripple_at_l_min_a", ripple, "A", "inductor", "ripple at l_min (hi·IL at vin_min)", vin_star
-    )
+    # the ripple at l_min is il_ripple_max_a above (hi·IL at vin_min by the sizing): one row
     if recommended is not None:
         at_rec = worst_stresses(spec, np.array([recommended]))
         add("il_ripple_at_l_recommended_a", at_rec["il_ripple"][0][0], "A", "inductor",
