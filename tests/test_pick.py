@@ -45,26 +45,29 @@ def names(outcomes):
 
 
 def test_inductor_outcome_written_out_by_hand(catalog, spec):
-    # Each part's minimum L is L·(1 − tol); needs Isat ≥ peak/0.8 and Irms ≥ RMS/0.9.
-    #   A 22 µH → 17.6 µH: ΔIL 1.136 A, peak 3.568 A → Isat ≥ 4.460 A (has 4.6, passes);
-    #     RMS √(9 + 1.136²/12) = 3.0179 A → Irms ≥ 3.353 A (has 3.5). Loss 3.0179²·20 mΩ
-    #     = 0.1822 W.
-    #   B as A but Isat 4.4 A < 4.460 A → fails saturation only (3.568/3.52 = 1.4 % over).
+    # Each part's minimum L is L·(1 − tol); it must reach l_min, and Isat ≥ peak/0.8 and
+    # Irms ≥ RMS/0.9 at it.
+    #   A 22 µH ±10 % → 19.8 µH ≥ 18.75 µH: ΔIL 1.0101 A, peak 3.5051 A → Isat ≥ 4.381 A
+    #     (has 4.6, passes); RMS √(9 + 1.0101²/12) = 3.0141 A → Irms ≥ 3.349 A (has 3.5).
+    #     Loss 3.0141²·20 mΩ = 0.1817 W.
+    #   B as A but Isat 4.3 A < 4.381 A → fails saturation only (3.5051/3.44 = 1.9 % over).
     #   C 33 µH ±10 % → 29.7 µH: peak 3.3367 A → Isat ≥ 4.171 A (4.5); RMS 3.0063 A → Irms
     #     ≥ 3.340 A (3.4). Loss 9.0378·30 mΩ = 0.2711 W.
-    #   D 15 µH < l_min 18.75 µH → fails the window only (its currents fit 5 A / 4 A).
+    #   D 15 µH ±20 % → 12 µH < l_min 18.75 µH → fails the window only (load 18.75/12 =
+    #     1.5625; its currents fit 5 A / 4 A).
     #   E no Isat → unverified, missing isat_a.
     #   F 27 µH obsolete → fails lifecycle only.
     #   G 47 µH > l_max, Isat 2 A and Irms 2 A → fails inductance, saturation and rms.
-    #   H 22 µH nrnd, Isat 5 A, Irms 4 A: passes with a note; loss 9.1076·25 mΩ = 0.2277 W.
+    #   H 22 µH ±10 % nrnd, Isat 5 A, Irms 4 A: passes with a note; loss 9.0850·25 mΩ
+    #     = 0.2271 W.
     result = pick(catalog, spec, "inductor", profile=load_profile("standard"))
     assert result.total == 8
     assert names(result.passed) == ["QM-220-A", "VT-220-H", "QM-330-C"]
-    assert [o.loss_w for o in result.passed] == pytest.approx([0.18215, 0.22769, 0.27113], rel=1e-3)
+    assert [o.loss_w for o in result.passed] == pytest.approx([0.18170, 0.22713, 0.27113], rel=1e-3)
     assert names(result.unverified) == ["VT-220-E"]
     assert result.unverified[0].missing == ("isat_a",)
-    # closest to passing first: one failing rule, smallest overshoot (B 1.014, D 18.75/15 =
-    # 1.25, F a yes/no rule), then G with three failing rules
+    # closest to passing first: one failing rule, smallest overshoot (B 1.019, D 1.5625,
+    # F a yes/no rule), then G with three failing rules
     assert names(result.failed) == ["QM-220-B", "QM-150-D", "VT-270-F", "VT-470-G"]
     assert [c.rule for c in result.failed[3].failing] == ["inductance", "saturation", "rms"]
     assert result.fail_counts == {
@@ -82,18 +85,18 @@ def test_inductor_outcome_written_out_by_hand(catalog, spec):
 def test_saturation_check_numbers(catalog, spec):
     a = pick(catalog, spec, "inductor", profile=load_profile("standard")).passed[0]
     sat = a.check("saturation")
-    # peak at 17.6 µH: 3 + 1e-5/17.6e-6 = 3.5682 A, at Vin = 6 V; limit 0.8 · 4.6 = 3.68 A
-    assert sat.stress == pytest.approx(3.5682, rel=1e-4)
+    # peak at 19.8 µH: 3 + 1e-5/19.8e-6 = 3.5051 A, at Vin = 6 V; limit 0.8 · 4.6 = 3.68 A
+    assert sat.stress == pytest.approx(3.5051, rel=1e-4)
     assert sat.worst_vin_v == pytest.approx(6.0)
     assert sat.limit == pytest.approx(3.68)
-    assert sat.utilisation == pytest.approx(3.5682 / 4.6, rel=1e-4)
+    assert sat.utilisation == pytest.approx(3.5051 / 4.6, rel=1e-4)
     assert sat.derating == 0.8
 
 
 @pytest.mark.parametrize(
     ("rank", "expected"),
     [
-        ("loss", ["QM-220-A", "VT-220-H", "QM-330-C"]),  # 0.182, 0.228, 0.271 W
+        ("loss", ["QM-220-A", "VT-220-H", "QM-330-C"]),  # 0.182, 0.227, 0.271 W
         ("cost", ["QM-220-A", "QM-330-C", "VT-220-H"]),  # 0.50, 0.60, 0.65
         ("size", ["VT-220-H", "QM-220-A", "QM-330-C"]),  # 16, 25, 36 mm²
     ],
@@ -146,8 +149,8 @@ def test_input_cap(catalog, spec):
 
 
 def test_high_rel_is_stricter(catalog, spec):
-    # high-rel uses 0.7 of Isat and 0.8 of Irms: A now needs Isat ≥ 3.568/0.7 = 5.097 A
-    # (has 4.6) and Irms ≥ 3.018/0.8 = 3.772 A (has 3.5); H needs the same (has 5 A, 4 A:
+    # high-rel uses 0.7 of Isat and 0.8 of Irms: A now needs Isat ≥ 3.5051/0.7 = 5.007 A
+    # (has 4.6) and Irms ≥ 3.0141/0.8 = 3.768 A (has 3.5); H needs the same (has 5 A, 4 A:
     # fails saturation only); C needs 3.337/0.7 = 4.767 A (has 4.5). Nothing passes.
     result = pick(catalog, spec, "inductor", profile=load_profile("high-rel"))
     assert result.counts["passed"] == 0

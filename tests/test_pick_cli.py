@@ -44,8 +44,8 @@ def test_table_view(db):
         "Near misses",
     ):
         assert text in out, text
-    # B's sentence: needs 3.568/0.8 = 4.46 A, part has 4.4 A, at 6 V in
-    assert "needs Isat ≥ 4.46 A" in out
+    # B's sentence: needs 3.5051/0.8 = 4.38 A, part has 4.3 A, at 6 V in (see test_pick)
+    assert "needs Isat ≥ 4.38 A" in out
     assert out.index("QM-220-A") < out.index("VT-220-H") < out.index("QM-330-C")
 
 
@@ -159,7 +159,7 @@ def test_bad_profile_file_names_the_key(db, tmp_path):
 
 
 def test_company_profile(db, tmp_path):
-    # Isat use 0.75: A needs 3.568/0.75 = 4.758 A > 4.6 A, so A fails; H (5 A) still passes
+    # Isat use 0.75: A needs 3.5051/0.75 = 4.673 A > 4.6 A, so A fails; H (5 A) still passes
     company = tmp_path / "co.toml"
     company.write_text('extends = "standard"\nname = "acme"\n[inductor]\nsaturation_use = 0.75\n')
     result = run(

@@ -34,7 +34,18 @@ def make(rule, stress, limit, rating, derating, status, unit="A", vin=None, miss
         (
             make("inductance", 22e-6, 19.6e-6, None, None, "fail", unit="H"),
             1,
-            "inductance: 22 µH is outside the design window (maximum 19.6 µH)",
+            "inductance: 22 µH nominal is above the design's maximum 19.6 µH",
+        ),
+        (
+            make("inductance", 8e-6, 9.8e-6, None, None, "fail", unit="H"),
+            1,
+            "inductance: 8 µH at its tolerance, L·(1 − tol), is below the design's minimum 9.8 µH",
+        ),
+        (
+            make("inductance", 12e-6, 9.8e-6, None, None, "pass", unit="H"),
+            1,
+            "inductance: 12 µH at its tolerance, L·(1 − tol), is at least the design's minimum "
+            "9.8 µH",
         ),
         (
             make("ripple-voltage", 0.133, 0.12, 0.12, 1.0, "fail", unit="V"),
@@ -102,8 +113,8 @@ def test_render_pick_on_a_fixed_console(tmp_path):
     text = out.getvalue()
     # the policy is visible, with the figures the rules used
     assert "saturation_use 80 %" in text
-    # B misses saturation: needs 3.568/0.8 = 4.46 A at 6 V in; part has 4.4 A
-    assert "needs Isat ≥ 4.46 A (3.57 A peak at 6 V in, 80 % use); part has 4.4 A" in text
+    # B misses saturation: needs 3.5051/0.8 = 4.38 A at 6 V in; part has 4.3 A
+    assert "needs Isat ≥ 4.38 A (3.51 A peak at 6 V in, 80 % use); part has 4.3 A" in text
     assert "3 passed, 1 unverified, 4 failed" in text
 
 

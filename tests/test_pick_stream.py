@@ -78,8 +78,8 @@ def test_messages_option_adds_the_sentences(db):
     b_plain = next(e for e in plain["failed"] if e["mpn"] == "QM-220-B")
     b_worded = next(e for e in worded["failed"] if e["mpn"] == "QM-220-B")
     assert "message" not in b_plain["reasons"][0]
-    # B's sentence: needs 3.568/0.8 = 4.46 A, part has 4.4 A (hand-worked in test_pick_cli)
-    assert "needs Isat ≥ 4.46 A" in b_worded["reasons"][0]["message"]
+    # B's sentence: needs 3.5051/0.8 = 4.38 A, part has 4.3 A (hand-worked in test_pick)
+    assert "needs Isat ≥ 4.38 A" in b_worded["reasons"][0]["message"]
     assert all(c.get("message") for e in worded["passed"] for c in e["checks"])
 
 

@@ -47,22 +47,42 @@ def test_minimum_inductance(inductance_h, tolerance, expected_h):
 
 
 @pytest.mark.parametrize(
-    ("inductance_h", "status"),
+    ("inductance_h", "tolerance", "status"),
     [
-        (9.9e-6, PASS),  # just above l_min = 9.8 µH
-        (9.7e-6, FAIL),  # just below l_min
-        (19.5e-6, PASS),  # just below l_max = 19.6 µH
-        (19.7e-6, FAIL),  # just above l_max
-        (NAN, UNVERIFIED),  # no inductance: the window cannot be checked
+        # the window of the field-logger hand working (catalogs/scenarios/field-logger.toml):
+        # l_min = 9.8 µH, l_max = 19.6 µH; the part's lowest L·(1 − tol) must reach l_min
+        # (definition of a ± tolerance) and its nominal L must not pass l_max
+        (9.9e-6, 0.0, PASS),  # just above l_min, exact part
+        (9.7e-6, 0.0, FAIL),  # just below l_min
+        (10e-6, 0.2, FAIL),  # issue 10: 10 µH ±20 % is 8 µH at its tolerance, below 9.8 µH
+        (12e-6, 0.2, FAIL),  # 9.6 µH at its tolerance, just below
+        (15e-6, 0.2, PASS),  # 12 µH at its tolerance, and 15 µH ≤ 19.6 µH
+        (12.3e-6, 0.2, PASS),  # 9.84 µH: just above
+        (19.5e-6, 0.2, PASS),  # just below l_max = 19.6 µH
+        (19.7e-6, 0.2, FAIL),  # just above l_max
+        (NAN, 0.2, UNVERIFIED),  # no inductance: the window cannot be checked
     ],
 )
-def test_inductance_window(inductance_h, status):
-    rule = inductor.window_rule(np.array([inductance_h]), 9.8e-6, 19.6e-6)
+def test_inductance_window(inductance_h, tolerance, status):
+    nominal = np.array([inductance_h])
+    low = inductor.minimum_inductance_h(nominal, np.array([tolerance]), 0.2)
+    rule = inductor.window_rule(nominal, low, 9.8e-6, 19.6e-6)
     assert rule.status[0] == status
     if status == FAIL:
         assert rule.load[0] > 1.0
+    if status == PASS:
+        assert rule.load[0] <= 1.0
     if status == UNVERIFIED:
         assert rule.check_at(0).missing == ("inductance_h",)
+
+
+def test_inductance_window_reports_the_bound_at_stake():
+    # 10 µH ±20 % fails on its low side: the check shows 8 µH against l_min 9.8 µH
+    nominal = np.array([10e-6, 19.7e-6])
+    low = inductor.minimum_inductance_h(nominal, np.array([0.2, 0.2]), 0.2)
+    rule = inductor.window_rule(nominal, low, 9.8e-6, 19.6e-6)
+    assert rule.stress.tolist() == pytest.approx([8e-6, 19.7e-6])
+    assert rule.limit.tolist() == pytest.approx([9.8e-6, 19.6e-6])
 
 
 @pytest.mark.parametrize(

@@ -67,7 +67,8 @@ def test_json_has_the_issue_3_keys_in_si_units():
     assert data["l_min_h"] == pytest.approx(9.797e-6, rel=2e-4)
     assert data["cout_min_f"] == pytest.approx(13.125e-6, rel=1e-9)
     assert data["duty_max"] == pytest.approx(0.7875, rel=1e-9)
-    assert data["l_recommended_h"] == pytest.approx(10e-6)
+    # smallest E12 L with L·(1 − 0.2) ≥ 9.797 µH (the default ±20 %): 15 µH
+    assert data["l_recommended_h"] == pytest.approx(15e-6)
     assert data["ccm"] is True
     assert isinstance(data["cautions"], list) and all(isinstance(c, str) for c in data["cautions"])
     assert data["worst_vin_v"]["il_peak_max_a"] == pytest.approx(6.0)

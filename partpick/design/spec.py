@@ -76,6 +76,15 @@ SPEC_KEYS: dict[str, SpecKey] = {
     "currency": SpecKey(
         "currency", None, "", "currency of the catalog prices, shown in the BOM (e.g. EUR)"
     ),
+    "inductor_tolerance": SpecKey(
+        "inductor_tolerance",
+        "fraction",
+        0.2,
+        "inductance tolerance (±) for the recommended L and its stresses",
+    ),
+    "diode_vf": SpecKey(
+        "diode_vf_v", "V", 0.7, "diode forward drop the switch sees on top of Vout (stress)"
+    ),
     "name": SpecKey("name", None, "", "name of the design"),
     "notes": SpecKey("notes", None, "", "free text"),
 }
@@ -116,6 +125,8 @@ class Spec:
     # source); 0 W: no controller loss unless the spec states one
     gate_drive_v: float = 10.0
     quiescent_w: float = 0.0
+    inductor_tolerance: float = 0.2  # ±20 %: common practice, no published source
+    diode_vf_v: float = 0.7  # a conservative silicon drop: common practice, no published source
     topology: str = "boost"
     currency: str = ""
     name: str = ""
@@ -186,6 +197,13 @@ class Spec:
             self._fail("iout_min", f"is above iout ({self.iout_a:g} A)", self.iout_min_a)
         if self.quiescent_w < 0:
             self._fail("quiescent_w", "cannot be negative", self.quiescent_w)
+        if not 0 <= self.inductor_tolerance < 1:
+            self._fail(
+                "inductor_tolerance", "must be in [0, 1), e.g. 0.2 or '20 %'",
+                self.inductor_tolerance,
+            )  # fmt: skip
+        if not 0 <= self.diode_vf_v < self.vout_v:
+            self._fail("diode_vf", "must be zero or positive and below vout", self.diode_vf_v)
         low, high = _AMBIENT_RANGE_DEGC
         if not low <= self.ambient_max_degc <= high:
             self._fail(

@@ -133,11 +133,16 @@ def _limit_sentence(check: Check) -> str:
 
 
 def _inductance(check: Check, count: int) -> str:
-    value, bound = _q(check.stress, "H"), _q(check.limit, "H")
-    if check.status == "pass":
-        return f"inductance: {value} is inside the design window (nearest bound {bound})"
-    side = "minimum" if (check.stress or 0) < (check.limit or 0) else "maximum"
-    return f"inductance: {value} is outside the design window ({side} {bound})"
+    value, bound = _q_pair(check.stress, check.limit, "H")
+    lower = (check.stress or 0) >= (check.limit or 0)
+    if check.status == "fail":
+        lower = not lower
+    if lower:
+        what = f"{value} at its tolerance, L·(1 − tol),"
+        verdict = "is at least" if check.status == "pass" else "is below"
+        return f"inductance: {what} {verdict} the design's minimum {bound}"
+    verdict = "is at most" if check.status == "pass" else "is above"
+    return f"inductance: {value} nominal {verdict} the design's maximum {bound}"
 
 
 def _ripple_voltage(check: Check, count: int) -> str:

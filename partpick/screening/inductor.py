@@ -2,7 +2,10 @@
 
 The rules (profile ``standard`` figures in brackets):
 
-* ``inductance``: l_min_h ≤ L ≤ l_max_h, with the nominal L (the ripple window of the design).
+* ``inductance``: l_min_h ≤ L·(1 − tolerance) and L ≤ l_max_h: the part's lowest inductance
+  keeps the ripple (so the peak) inside the design's band, and its nominal value is not above
+  the band's low end (too little ripple is a size and control matter, not a stress, so the
+  nominal is used there; common practice, no published source).
 * ``saturation``: the peak current at the part's minimum inductance L·(1 − tolerance)
   ≤ u·Isat [u = 0.8]. The minimum L gives the largest ripple, so the largest peak.
 * ``rms``: the RMS current at that same minimum L ≤ u·Irms [u = 0.9].
@@ -73,20 +76,25 @@ def minimum_inductance_h(inductance_h, tolerance, tolerance_default: float) -> n
     return np.asarray(inductance_h, dtype=float) * (1.0 - tol)
 
 
-def window_rule(inductance_h, l_min_h: float, l_max_h: float) -> RuleResult:
-    """Return the rule l_min_h ≤ L ≤ l_max_h over nominal inductances (H).
+def window_rule(inductance_h, inductance_min_h, l_min_h: float, l_max_h: float) -> RuleResult:
+    """Return the rule l_min_h ≤ L·(1 − tol) and L ≤ l_max_h (H).
 
-    The limit reported is the bound the part breaks, or the nearer one when it is inside;
-    load = max(l_min/L, L/l_max), so a part inside has load ≤ 1.
+    inductance_h: nominal L; inductance_min_h: L·(1 − tol). The stress and limit reported are
+    those of the bound the part breaks, or of the nearer one when it is inside (L·(1 − tol)
+    against l_min, nominal L against l_max); load = max(l_min/L_low, L/l_max), so a part
+    inside has load ≤ 1.
     """
     ind = np.asarray(inductance_h, dtype=float)
+    low = np.asarray(inductance_min_h, dtype=float)
     with np.errstate(divide="ignore", invalid="ignore"):
-        below, above = l_min_h / ind, ind / l_max_h
+        below, above = l_min_h / low, ind / l_max_h
     load = np.maximum(below, above)
-    limit = np.where(below >= above, l_min_h, l_max_h)
-    passing = (ind >= l_min_h) & (ind <= l_max_h)
+    lower_side = below >= above
+    limit = np.where(lower_side, l_min_h, l_max_h)
+    stress = np.where(lower_side, low, ind)
+    passing = (low >= l_min_h) & (ind <= l_max_h)
     return finish_rule(
-        "inductance", "H", ind, limit, None, None, None, None, load,
+        "inductance", "H", stress, limit, None, None, None, None, load,
         missing_masks({"inductance_h": ind}, ("inductance_h",)), passing=passing,
     )  # fmt: skip
 
@@ -152,11 +160,11 @@ def screen(
     l_min, l_max = envelope.value("l_min_h"), envelope.value("l_max_h")
     nominal = columns["inductance_h"]
     tol_default = profile.value("inductor.tolerance_default")
-    l_part = minimum_inductance_h(nominal, columns["tolerance"], tol_default)
-    l_part = np.where(np.isfinite(l_part) & (l_part > 0), l_part, l_min)
+    l_low = minimum_inductance_h(nominal, columns["tolerance"], tol_default)
+    l_part = np.where(np.isfinite(l_low) & (l_low > 0), l_low, l_min)
     st = stresses_at_each(topology, spec, l_part)
     rules = (
-        window_rule(nominal, l_min, l_max),
+        window_rule(nominal, l_low, l_min, l_max),
         saturation_rule(
             st.il_peak_a, st.il_peak_vin_v, columns["isat_a"],
             profile.value("inductor.saturation_use"),

@@ -29,6 +29,7 @@ from partpick.design.topologies.boost_equations import (
     inductor_average_current_a,
     input_capacitance_min_f,
     output_capacitance_min_f,
+    switch_off_voltage_v,
 )
 from partpick.design.topologies.boost_model import (
     OperatingGrid,
@@ -106,13 +107,14 @@ def _add_inductor(
     figures: _Figures, spec: Spec, grid: OperatingGrid, l_min: float, l_max: float, vin_star: float
 ) -> list[Caution]:
     il_at_vin_min = float(inductor_average_current_a(spec.iout_a, grid.duty[0]))
-    fits = e_values_between(l_min, l_max, RECOMMENDED_SERIES)
-    recommended = fits[0] if fits else None
+    recommended = recommended_inductance_h(l_min, l_max, spec.inductor_tolerance)
     add = figures.add
     add("vin_star_v", vin_star, "V", "inductor", "input voltage of largest ripple", vin_star)
     add("l_min_h", l_min, "H", "inductor", "inductance, minimum (ripple hi)", vin_star)
     add("l_max_h", l_max, "H", "inductor", "inductance, maximum (ripple lo)", vin_star)
-    add("l_recommended_h", recommended, "H", "inductor", "inductance, recommended E12", vin_star)
+    add("l_recommended_h", recommended, "H", "inductor",
+        f"inductance, recommended E12 (L·(1 − {_pct(spec.inductor_tolerance)}) ≥ l_min)",
+        vin_star)  # fmt: skip
     add("il_avg_max_a", il_at_vin_min, "A", "inductor", "average current", spec.vin_min_v)
     worst = worst_stresses(spec, np.array([l_min]))
     for key, name, label in (
@@ -123,20 +125,39 @@ def _add_inductor(
         add(key, worst[name][0][0], "A", "inductor", label, worst[name][1][0])
     # the ripple at l_min is il_ripple_max_a above (hi·IL at vin_min by the sizing): one row
     if recommended is not None:
-        at_rec = worst_stresses(spec, np.array([recommended]))
+        low = recommended * (1.0 - spec.inductor_tolerance)
+        at_rec = worst_stresses(spec, np.array([low]))
+        add("l_recommended_min_h", low, "H", "inductor",
+            "recommended L at its tolerance, L·(1 − tol)", vin_star)  # fmt: skip
         add("il_ripple_at_l_recommended_a", at_rec["il_ripple"][0][0], "A", "inductor",
-            "ripple p-p at the recommended L", at_rec["il_ripple"][1][0])  # fmt: skip
+            "ripple p-p at the recommended L·(1 − tol)", at_rec["il_ripple"][1][0])  # fmt: skip
         add("il_peak_at_l_recommended_a", at_rec["il_peak"][0][0], "A", "inductor",
-            "peak current at the recommended L", at_rec["il_peak"][1][0])  # fmt: skip
+            "peak current at the recommended L·(1 − tol)", at_rec["il_peak"][1][0])  # fmt: skip
         return []
-    return [_no_standard_value_warning(l_min, l_max)]
+    return [_no_standard_value_warning(l_min, l_max, spec.inductor_tolerance)]
 
 
-def _no_standard_value_warning(l_min: float, l_max: float) -> Caution:
+def recommended_inductance_h(l_min_h: float, l_max_h: float, tolerance: float) -> float | None:
+    """Return the smallest E12 value L with L·(1 − tol) ≥ l_min and L ≤ l_max, in H (or None).
+
+    l_min_h, l_max_h: the ripple window, in H; tolerance: the part's ± tolerance as a fraction.
+    At its low tolerance the part still keeps the ripple, and so the peak, inside the band.
+    Values: IEC 60063 (E12); the tolerance rule is common practice, no published source.
+    """
+    fits = e_values_between(l_min_h / (1.0 - tolerance), l_max_h, RECOMMENDED_SERIES)
+    return fits[0] if fits else None
+
+
+def _pct(fraction: float) -> str:
+    return f"{fraction * 100:.3g} %"
+
+
+def _no_standard_value_warning(l_min: float, l_max: float, tolerance: float) -> Caution:
     return Caution(
         "no-standard-inductance",
-        f"No {RECOMMENDED_SERIES} value lies between {format_eng(l_min, 'H')} and "
-        f"{format_eng(l_max, 'H')}; widen ripple_ratio or use a non-standard inductance.",
+        f"No {RECOMMENDED_SERIES} value L has L·(1 − {_pct(tolerance)}) ≥ "
+        f"{format_eng(l_min, 'H')} and L ≤ {format_eng(l_max, 'H')}; widen ripple_ratio, "
+        "choose a tighter tolerance or use a non-standard inductance.",
     )
 
 
@@ -146,6 +167,7 @@ def _add_semiconductors_and_caps(
     worst = worst_stresses(spec, np.array([l_min]))
     peak, peak_vin = worst["il_peak"][0][0], worst["il_peak"][1][0]
     v_off = spec.vout_v + spec.vout_ripple_v / 2  # ringing is left to the derating
+    v_switch = switch_off_voltage_v(spec.vout_v, spec.vout_ripple_v, spec.diode_vf_v)
     add = figures.add
     add(
         "isw_rms_max_a",
@@ -156,7 +178,10 @@ def _add_semiconductors_and_caps(
         worst["isw_rms"][1][0],
     )
     add("isw_peak_max_a", peak, "A", "switch", "peak current", peak_vin)
-    add("vsw_max_v", v_off, "V", "switch", "off-state voltage")
+    vf_text = format_eng(spec.diode_vf_v, "V")
+    add(
+        "vsw_max_v", v_switch, "V", "switch", f"off-state voltage, Vout + ripple/2 + VF ({vf_text})"
+    )
     add("id_avg_a", spec.iout_a, "A", "diode", "average current")
     add("id_peak_max_a", peak, "A", "diode", "peak current", peak_vin)
     add("id_rms_max_a", worst["id_rms"][0][0], "A", "diode", "RMS current", worst["id_rms"][1][0])
@@ -213,10 +238,10 @@ def _add_light_load(
 ) -> _Conduction:
     """Add the iout_min figures and return their verdict (its ``ccm`` is the light-load one).
 
-    ``worst`` indexes the grid point of the largest K_crit.
+    ``worst`` indexes the grid point of the largest K_crit. The DCM figures are the worst over
+    the whole input grid (:func:`light_load_worst`), each with the Vin where it occurs.
     """
     vin_worst = grid.vin_v[worst]
-    kcrit = ccm_k_critical(grid.duty[worst])
     add = figures.add
     r_light = effective_load_resistance_ohm(spec.vout_v, spec.iout_min_a, spec.efficiency)
     k_light = float(ccm_k_factor(l_min, r_light, spec.fsw_hz))
@@ -224,16 +249,52 @@ def _add_light_load(
     l_crit_light = critical_inductance_h(grid.duty[worst], r_light, spec.fsw_hz)
     add("l_crit_light_load_h", l_crit_light, "H", "inductor", "critical inductance, iout_min",
         vin_worst)  # fmt: skip
-    if k_light > kcrit:
+    light = light_load_worst(grid.vin_v, grid.duty, k_light, spec.fsw_hz)
+    if light is None:
         return _Conduction(True, None, None, ())
-    ratio = float(dcm_conversion_ratio(grid.duty[worst], k_light))
-    duty_dcm = dcm_duty_cycle(ccm_conversion_ratio(grid.duty[worst]), k_light)
-    add("dcm_ratio_light_load", ratio, "", "duty", "DCM ratio M at the CCM duty, iout_min",
-        vin_worst)  # fmt: skip
-    add("duty_light_load_dcm", duty_dcm, "fraction", "duty", "duty needed in DCM at iout_min",
-        vin_worst)  # fmt: skip
-    warning = _light_load_dcm_warning(spec, vin_worst, ratio, float(duty_dcm))
-    return _Conduction(False, None, ratio, (warning,))
+    add("dcm_ratio_light_load", light.ratio_max, "", "duty",
+        "DCM ratio M at the CCM duty, iout_min, largest", light.ratio_vin_v)  # fmt: skip
+    add("duty_light_load_dcm", light.duty_min, "fraction", "duty",
+        "duty needed at iout_min, smallest", light.duty_vin_v)  # fmt: skip
+    add("on_time_light_load_min_s", light.on_time_min_s, "s", "duty",
+        "on-time needed at iout_min, shortest", light.duty_vin_v)  # fmt: skip
+    warning = _light_load_dcm_warning(spec, light)
+    return _Conduction(False, None, light.ratio_max, (warning,))
+
+
+@dataclass(frozen=True)
+class LightLoad:
+    """The light-load DCM figures, worst over the input grid, and where each occurs."""
+
+    ratio_max: float
+    ratio_vin_v: float
+    duty_min: float
+    duty_vin_v: float
+    on_time_min_s: float
+
+
+def light_load_worst(vin_v, duty, k_factor: float, fsw_hz: float) -> LightLoad | None:
+    """Return the light-load figures over the grid, or None where it stays in CCM throughout.
+
+    vin_v, duty: the grid's input voltages (V) and CCM duties; k_factor: K = 2L/(R·Ts) at the
+    light load. Where K < K_crit(D) = D(1 − D)² the converter is in DCM: the CCM duty would
+    give M = (1 + √(1 + 4D²/K))/2, and the duty needed for the CCM ratio M_ccm = 1/(1 − D)
+    is √(K·M_ccm·(M_ccm − 1)); elsewhere the CCM duty holds. The largest M, the smallest
+    duty and the shortest on-time D/fsw are taken over every grid point.
+    References: Erickson & Maksimovic, Fundamentals of Power Electronics, 3rd ed., ch. 5.
+    """
+    vin, d = np.asarray(vin_v, dtype=float), np.asarray(duty, dtype=float)
+    dcm = k_factor < ccm_k_critical(d)
+    if not dcm.any():
+        return None
+    m_ccm = ccm_conversion_ratio(d)
+    needed = np.where(dcm, dcm_duty_cycle(m_ccm, k_factor), d)
+    ratio = np.where(dcm, dcm_conversion_ratio(d, k_factor), m_ccm)
+    i_ratio, i_duty = int(np.argmax(ratio)), int(np.argmin(needed))
+    return LightLoad(
+        float(ratio[i_ratio]), float(vin[i_ratio]), float(needed[i_duty]), float(vin[i_duty]),
+        float(needed[i_duty] / fsw_hz),
+    )  # fmt: skip
 
 
 def _full_load_dcm_warning(vin_v: float) -> Caution:
@@ -244,12 +305,14 @@ def _full_load_dcm_warning(vin_v: float) -> Caution:
     )
 
 
-def _light_load_dcm_warning(spec: Spec, vin_v: float, ratio: float, duty: float) -> Caution:
+def _light_load_dcm_warning(spec: Spec, light: LightLoad) -> Caution:
     return Caution(
         "light-load-dcm",
-        f"At iout_min ({format_eng(spec.iout_min_a, 'A')}) the converter runs in DCM near "
-        f"{format_eng(vin_v, 'V')} in: the CCM duty would give M = {ratio:.3g}, so the "
-        f"controller must cut the duty to about {duty:.3g} (Erickson & Maksimovic ch. 5).",
+        f"At iout_min ({format_eng(spec.iout_min_a, 'A')}) the converter runs in DCM: the CCM "
+        f"duty would give M up to {light.ratio_max:.3g} (at {format_eng(light.ratio_vin_v, 'V')}"
+        f" in), so the controller must cut the duty down to {light.duty_min:.3g}, an on-time "
+        f"of {format_eng(light.on_time_min_s, 's')} (at {format_eng(light.duty_vin_v, 'V')} "
+        "in; Erickson & Maksimovic ch. 5).",
     )
 
 

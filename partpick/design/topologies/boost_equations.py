@@ -56,6 +56,18 @@ def worst_ripple_input_voltage_v(
     return np.clip(_f(vout_v) / (2.0 * _f(efficiency)), _f(vin_min_v), _f(vin_max_v))
 
 
+def switch_off_voltage_v(vout_v: ArrayLike, vout_ripple_v: ArrayLike, diode_vf_v: ArrayLike):
+    """Return the switch's off-state voltage Vout + ΔVout/2 + VF, in V.
+
+    While the switch is off the diode conducts, so the switch node sits one forward drop
+    above the output, whose peak is Vout + ΔVout/2. vout_v: output voltage, in V;
+    vout_ripple_v: output ripple peak-to-peak, in V; diode_vf_v: diode forward drop, in V.
+    The diode's reverse voltage stays Vout + ΔVout/2 (its anode is at ground when the switch
+    is on). References: [EM] ch. 2 (switch and diode voltages of the boost); [SLVA372].
+    """
+    return _f(vout_v) + _f(vout_ripple_v) / 2.0 + _f(diode_vf_v)
+
+
 def inductor_average_current_a(iout_a: ArrayLike, duty: ArrayLike):
     """Return the average inductor (= input) current IL = Iout/(1 − D), in A.
 
