@@ -3,7 +3,8 @@
 Hand working for the bundled field-logger scenario (catalogs/scenarios/field-logger.toml, whose
 comments work its envelope by hand with the TI SLVA372 and Erickson & Maksimovic ch. 2/5
 forms): l_min = 9.80 µH, l_max = 19.59 µH; at l_min the peak is 4.368 A and the RMS 3.781 A;
-switch RMS 3.355 A; switch and diode voltage 24.06 V; output-cap RMS 1.548 A; duty_max 0.7875.
+switch RMS 3.355 A; diode voltage 24.06 V, switch voltage 24.76 V (plus the spec's default 0.7 V
+diode drop); output-cap RMS 1.548 A; duty_max 0.7875.
 The standard profile's figures (from memory, see partpick/screening/profiles/standard.toml):
 Isat use 0.8, Irms use 0.9, tolerance 20 %, reverse-voltage use 0.8, forward-current use 0.7,
 drain-voltage use 0.8, drain-current use 0.6, thermal margin 25 °C, hot factor 1.5, class II
@@ -47,7 +48,7 @@ def _requirements(role: str) -> dict[tuple[str, str], float]:
         ("inductor", "inductance_h", "<=", 19.59e-6),
         ("inductor", "isat_a", ">=", 4.368 / 0.8),  # peak at l_min / 0.8 = 5.46 A
         ("inductor", "irms_a", ">=", 3.781 / 0.9),  # RMS at l_min / 0.9 = 4.20 A
-        ("switch", "vds_v", ">=", 24.06 / 0.8),  # 30.1 V, as the scenario works it
+        ("switch", "vds_v", ">=", 24.76 / 0.8),  # 31.0 V, as the scenario works it
         ("switch", "id_a", ">=", 4.368 / 0.6),  # 7.28 A
         # (150 − 25 − 60) °C / (3.355² A² · 1.5) = 3.85 Ω·°C/W
         ("switch", "rds_on_theta_ja", "<=", 65.0 / (3.355**2 * 1.5)),
