@@ -1423,4 +1423,12 @@ def field_of(kind: str, name: str) -> Field:
     raise KeyError(name)
 
 
-PROVENANCE_COLUMNS: tuple[str, ...] = ("source_file", "source_sha256", "imported_at", "source_line")
+# "inferred" maps a field whose value the importer read from another column (a diode type
+# from the description) to that column; None where every value came from its own column.
+PROVENANCE_COLUMNS: tuple[str, ...] = (
+    "source_file",
+    "source_sha256",
+    "imported_at",
+    "source_line",
+    "inferred",
+)

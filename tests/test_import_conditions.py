@@ -38,7 +38,7 @@ def test_a_cell_gives_the_quantity_of_its_column_and_its_condition(
 
 def _extra(db_file: str, kind: str) -> dict[str, dict]:
     rows = sqlite3.connect(db_file).execute(f"SELECT mpn, extra FROM parts_{kind}")
-    return {mpn: json.loads(extra) for mpn, extra in rows}
+    return {mpn: json.loads(extra or "{}") for mpn, extra in rows}
 
 
 def test_conditions_land_in_each_parts_extra_data(db_file, write_csv):
@@ -52,7 +52,7 @@ def test_conditions_land_in_each_parts_extra_data(db_file, write_csv):
     assert parts["TD-1"]["vf_v"] == pytest.approx(0.7)
     extra = _extra(db_file, "diode")
     assert extra["TD-1"] == {"vf_v condition": "3 A"}
-    assert extra["TD-2"] == {"vf_v condition": None}
+    assert extra["TD-2"] == {}  # no condition, no note
 
 
 def test_a_header_condition_is_kept_for_every_part(db_file, write_csv):

@@ -252,6 +252,34 @@ def extra_json(frame, columns: list[tuple[str, object]], rows: int) -> np.ndarra
     return joined
 
 
+def with_notes(extra: np.ndarray, notes: list[tuple[str, np.ndarray]]) -> np.ndarray:
+    """Return the per-row extra JSON with each note's key added where its value is not None.
+
+    A note (what a figure was measured at, where a value was inferred from) is left out of
+    a row that has none, so a part's extra data does not depend on which chunk it was in.
+    """
+    if not notes:
+        return extra
+    pieces = np.full(len(extra), "", dtype=object)
+    for key, values in notes:
+        head = json.dumps(key, ensure_ascii=False) + ": "
+        codes, uniques = factorize(values)
+        encoded = _object_array(
+            ["" if u is None else ", " + head + json.dumps(str(u), ensure_ascii=False)
+             for u in uniques]
+        )  # fmt: skip
+        pieces = pieces + encoded[codes]
+    out = np.empty(len(extra), dtype=object)
+    for i, (text, piece) in enumerate(zip(extra.tolist(), pieces.tolist(), strict=True)):
+        if not piece:
+            out[i] = text
+        elif text is None:
+            out[i] = "{" + piece[2:] + "}"
+        else:
+            out[i] = text[:-1] + piece + "}"
+    return out
+
+
 def _json_cell(value: object) -> str:
     text = "" if value is None else str(value).strip()
     return "null" if is_missing(text) else json.dumps(text, ensure_ascii=False)

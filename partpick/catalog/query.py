@@ -9,6 +9,7 @@ bound SQL parameter; nothing from the text is ever spliced into SQL or evaluated
 
 from __future__ import annotations
 
+import json
 import math
 import operator
 import re
@@ -119,7 +120,11 @@ def list_parts(
     if provenance:
         batches = import_batches.c
         query = query.add_columns(
-            batches.file, batches.sha256, batches.imported_at, table.c.source_line
+            batches.file,
+            batches.sha256,
+            batches.imported_at,
+            table.c.source_line,
+            table.c.extra,
         ).outerjoin(import_batches, batches.id == table.c.batch_id)
     for condition in conditions:
         query = query.where(_clause(table, condition))
@@ -137,7 +142,24 @@ def _row_dict(names: list[str], row: Sequence) -> dict[str, object]:
 
 
 def _with_provenance(part: dict[str, object], source: Sequence) -> dict[str, object]:
-    file, sha256, imported_at, line = source
+    file, sha256, imported_at, line, extra = source
     name = PurePath(file).name if file is not None else None  # the batch keeps the full path
-    part.update(zip(PROVENANCE_COLUMNS, (name, sha256, imported_at, line), strict=True))
+    inferred = _inferred(extra)
+    part.update(zip(PROVENANCE_COLUMNS, (name, sha256, imported_at, line, inferred), strict=True))
     return part
+
+
+_INFERRED_SUFFIX = " inferred from"
+
+
+def _inferred(extra: str | None) -> dict[str, str] | None:
+    """Return field -> where its value was inferred from ("description"), None if nothing was."""
+    if not extra or _INFERRED_SUFFIX not in extra:
+        return None
+    data = json.loads(extra)
+    found = {
+        key[: -len(_INFERRED_SUFFIX)]: value
+        for key, value in data.items()
+        if key.endswith(_INFERRED_SUFFIX) and value is not None
+    }
+    return found or None

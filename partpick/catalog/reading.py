@@ -22,8 +22,10 @@ from typing import TYPE_CHECKING
 
 import numpy as np
 
-from partpick.catalog.cells import ColumnValues, convert_column, extra_json
+from partpick.catalog.cells import ColumnValues, convert_column, extra_json, with_notes
 from partpick.catalog.headers import ColumnMatch, HeaderPlan, MapFile, match_headers
+from partpick.catalog.inference import SOURCE as INFERRED_FROM
+from partpick.catalog.inference import infer_column, inferable_fields
 from partpick.catalog.sniff import FileFormat, sniff_file
 from partpick.errors import CatalogFormatError, MapFileError
 from partpick.fields import KIND_FIELDS, Field, field_of
@@ -334,20 +336,21 @@ def _validate(item: PreparedFile, frame: list[np.ndarray], lines: np.ndarray, do
     bad = np.zeros(count, dtype=bool)
     rejects: list[Reject] = []
     extra_columns = [(h, i) for i, h in enumerate(item.headers) if h in item.plan.unrecognised]
-    conditions: dict[tuple[str, str], np.ndarray] = {}
+    notes: list[tuple[str, np.ndarray]] = []
     for match in item.plan.matches:
         column = _convert(frame, match, item)
         values[match.field] = column.values
         bad |= column.bad
         rejects.extend(_cell_rejects(frame[match.position], column, lines, match.header))
-        extra_columns += _condition_column(conditions, count, match, column)
+        notes += _condition_note(count, match, column)
     _apply_constants(values, item, count)
+    notes += _fill_from_description(values, item.kind, count)
     missing_mpn = _is_none(values["mpn"])
     for row in np.flatnonzero(missing_mpn & ~bad):
         rejects.append(Reject(int(lines[row]), item.mpn_header, "", "the part number is missing"))
     bad |= missing_mpn
     good = ~bad
-    values["extra"] = extra_json({**dict(enumerate(frame)), **conditions}, extra_columns, count)
+    values["extra"] = with_notes(extra_json(frame, extra_columns, count), notes)
     values["manufacturer"] = _manufacturer(values.get("manufacturer"), count)
     if good.all():  # the common case: no copy of every column
         return Chunk(values, lines, rejects, count, done)
@@ -362,21 +365,43 @@ def _is_none(column: np.ndarray) -> np.ndarray:
     return np.equal(column, None)
 
 
-def _condition_column(
-    conditions: dict, count: int, match: ColumnMatch, column: ColumnValues
-) -> list[tuple[str, object]]:
-    """Put in ``conditions`` what each cell of ``match`` was measured at: the cell's own
-    condition ("0.7 V @ 3 A"), else the header's ("RDS(on) @ 10V"); return its (extra-data
-    key, cells key), or nothing when there is no condition at all."""
+def _fill_from_description(
+    values: dict[str, np.ndarray], kind: str, count: int
+) -> list[tuple[str, np.ndarray]]:
+    """Fill a diode type or MOSFET channel the file lacks from what the description says;
+    return the notes (extra-data key, value per row) marking the parts filled."""
+    descriptions = values.get("description")
+    if descriptions is None:
+        return []
+    marked = []
+    for name in inferable_fields(kind):
+        column = values.get(name)
+        lacking = np.ones(count, dtype=bool) if column is None else np.equal(column, None)
+        if not lacking.any():
+            continue
+        stated = infer_column(kind, name, descriptions)
+        filled = lacking & ~np.equal(stated, None)
+        if not filled.any():
+            continue
+        column = np.full(count, None, dtype=object) if column is None else column
+        column[filled] = stated[filled]
+        values[name] = column
+        marked.append((f"{name} inferred from", np.where(filled, INFERRED_FROM, None)))
+    return marked
+
+
+def _condition_note(
+    count: int, match: ColumnMatch, column: ColumnValues
+) -> list[tuple[str, np.ndarray]]:
+    """Return the note of what each cell of ``match`` was measured at: the cell's own
+    condition ("0.7 V @ 3 A"), else the header's ("RDS(on) @ 10V"); nothing without any."""
     header = match.condition.lstrip("@").strip() or None
     if column.conditions is None and header is None:
         return []
     cells = column.conditions if column.conditions is not None else np.full(count, None)
     if header is not None:
         cells = np.where(np.equal(cells, None), header, cells)
-    key = ("condition", match.field)
-    conditions[key] = cells
-    return [(f"{match.field} condition", key)]
+    return [(f"{match.field} condition", cells)]
 
 
 def _manufacturer(column: np.ndarray | None, count: int) -> np.ndarray:

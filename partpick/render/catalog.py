@@ -284,9 +284,7 @@ def table_fields(kind: str) -> list[Field]:
     formats, which carry every field, so the table fits a 100-column terminal.
     """
     shared = {f.name for k, fs in KIND_FIELDS.items() if k != kind for f in fs}
-    own = [
-        f for f in KIND_FIELDS[kind] if f.name not in shared and f.name not in LOSS_MODEL_FIELDS
-    ]
+    own = [f for f in KIND_FIELDS[kind] if f.name not in shared and f.name not in LOSS_MODEL_FIELDS]
     common = {f.name: f for f in fields_of(kind)}
     return [*own, common["unit_price"], common["stock"]]
 
