@@ -58,13 +58,13 @@ class ColumnValues:
 def factorize(cells) -> tuple[np.ndarray, list]:
     """Return (code per cell, distinct cells in order of first appearance).
 
-    ``cells`` is any sequence of cell texts (None for a cell a short row lacks).
+    ``cells`` is any sequence of cell texts. Both passes run inside C (``dict.fromkeys`` and
+    a ``map`` of a dict lookup), as fast as pandas' factorize here (measured, 100,000 rows).
     """
-    index: dict = {}
-    codes = np.fromiter(
-        (index.setdefault(cell, len(index)) for cell in cells), dtype=np.intp, count=len(cells)
-    )
-    return codes, list(index)
+    uniques = list(dict.fromkeys(cells))
+    index = {cell: code for code, cell in enumerate(uniques)}
+    codes = np.fromiter(map(index.__getitem__, cells), dtype=np.intp, count=len(cells))
+    return codes, uniques
 
 
 def convert_column(
@@ -213,11 +213,11 @@ def _texts(cells) -> ColumnValues:
     Python's own ``str.strip`` mapped over the cells: pandas' ``.str.strip`` costs several
     times as much per cell. Cells that are not text (None, or NaN) are missing.
     """
-    raw = [cell if isinstance(cell, str) else None for cell in cells]
-    absent = np.fromiter((cell is None for cell in raw), dtype=bool, count=len(raw))
-    values = _object_array([cell.strip() if cell is not None else "" for cell in raw])
-    spelled = np.fromiter((v in _MISSING_SPELLINGS for v in values), dtype=bool, count=len(raw))
-    missing = absent | spelled
+    # a cell that is not text (None, NaN) becomes "", which is a missing marker
+    values = _object_array([cell.strip() if isinstance(cell, str) else "" for cell in cells])
+    missing = np.fromiter(
+        map(_MISSING_SPELLINGS.__contains__, values), dtype=bool, count=len(values)
+    )
     values[missing] = None
     count = len(values)
     return ColumnValues(values, np.zeros(count, dtype=bool), np.full(count, None, dtype=object))
