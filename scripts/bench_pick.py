@@ -171,7 +171,7 @@ def measure(folder: Path, db: Path, repeat: int, formats: tuple[str, ...]) -> di
     return timings
 
 
-def report(timings: dict, heading: str) -> list[str]:
+def report(timings: dict, heading: str, table_goal_s: float = 1.0) -> list[str]:
     """Print the figures and ratios; return the goals missed."""
     print(heading)
     for t in timings.values():
@@ -179,8 +179,8 @@ def report(timings: dict, heading: str) -> list[str]:
     base, table = timings["baseline"], timings["table"]
     print("  " + ratio_line("table / baseline", table, base, "<= 0.33 (>= 3x faster)"))
     missed = []
-    if table.median > 1.0 or base.median / table.median < 3.0:
-        missed.append("table pick <= 1 s and >= 3x")
+    if table.median > table_goal_s or base.median / table.median < 3.0:
+        missed.append(f"table pick <= {table_goal_s:g} s and >= 3x ({heading.split(',')[0]})")
     if "json" in timings:
         print("  " + ratio_line("json / baseline", timings["json"], base, "<= 1"))
         if timings["json"].median > base.median:
@@ -231,9 +231,7 @@ def _run(opts, folder: Path) -> int:
             print("building 1,000,000 inductors")
             build_catalog(big, 1_000_000, opts.seed, kinds=("inductor",))
         million = measure(big, big / "bench.db", opts.repeat, ())
-        missed += report(million, "1,000,000 inductors, whole processes:")
-        if million["table"].median > 2.0:
-            missed.append("1M-inductor table pick <= 2 s")
+        missed += report(million, "1,000,000 inductors, whole processes:", table_goal_s=2.0)
     print("goals met" if not missed else "goals NOT met: " + "; ".join(missed))
     return 0 if not missed else 1
 

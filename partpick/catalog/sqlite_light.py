@@ -81,6 +81,7 @@ class LightConnection:
     """A bare ``sqlite3`` connection with the SQLAlchemy calls the importer makes of one."""
 
     dialect = _Dialect("sqlite")
+    binds_lists = True  # executemany takes each parameter set as a list (no tuple copy)
 
     def __init__(self, connection: sqlite3.Connection) -> None:
         self.raw = connection
