@@ -25,7 +25,7 @@ from dataclasses import dataclass, field
 from pathlib import Path
 from typing import TYPE_CHECKING
 
-from partpick.catalog import columns, merge, sqlite_light
+from partpick.catalog import columns, identity, merge, sqlite_light
 from partpick.catalog.headers import ColumnMatch, MapFile, Unread, check_map_for_kind, load_map
 from partpick.catalog.location import generation_key, resolve_db_url, snapshot_file, sqlite_file
 from partpick.catalog.reading import WHOLE_ROW, PreparedFile, Reject, prepare_file, read_chunks
@@ -361,7 +361,10 @@ def _write_chunks(
     elif builder is not None:
         builder.invalidate()  # the table keeps earlier parts the spill does not hold
     duplicates = merge.DuplicateFinder(item.kind, batch_id)
-    for chunk in read_chunks(item, chunk_rows):
+    makers = identity.MakerSpellings(None if bulk else identity.stored_makers(conn, item.kind))
+    headers = {m.field: m.header for m in item.plan.matches}
+    for raw in read_chunks(item, chunk_rows):
+        chunk = identity.normalise_chunk(raw, makers, headers)
         if bulk:
             added = merge.insert_rows(conn, item.kind, batch_id, chunk.values, chunk.lines)
             written.changed += added
