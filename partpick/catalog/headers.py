@@ -25,7 +25,6 @@ from __future__ import annotations
 
 import codecs
 import difflib
-import tomllib
 from collections.abc import Sequence
 from dataclasses import dataclass, field
 from functools import lru_cache
@@ -50,6 +49,7 @@ from partpick.fields import (
     fields_of,
     fold_text,
 )
+from partpick.textfiles import TextFileError, read_toml
 from partpick.units import dimension_name, unit_multiplier
 
 IGNORE = "ignore"
@@ -108,12 +108,9 @@ def load_map(path: str | Path) -> MapFile:
     """Read and check a map file; raises :class:`MapFileError` naming the bad key."""
     name = str(path)
     try:
-        with open(path, "rb") as handle:
-            data = tomllib.load(handle)
-    except FileNotFoundError:
-        raise MapFileError(name, "file not found") from None
-    except (tomllib.TOMLDecodeError, UnicodeDecodeError) as exc:
-        raise MapFileError(name, f"not valid TOML ({exc})") from None
+        data = read_toml(path)
+    except TextFileError as exc:
+        raise MapFileError(name, exc.reason) from None
     for key in data:
         if key not in _MAP_KEYS:
             raise MapFileError(name, f"unknown key; expected one of {', '.join(_MAP_KEYS)}", key)

@@ -26,6 +26,7 @@ from partpick.catalog.cells import ColumnValues, convert_column, extra_json, wit
 from partpick.catalog.headers import ColumnMatch, HeaderPlan, MapFile, match_headers
 from partpick.catalog.inference import SOURCE as INFERRED_FROM
 from partpick.catalog.inference import infer_column, inferable_fields
+from partpick.catalog.limits import check_column_count
 from partpick.catalog.sniff import FileFormat, sniff_file
 from partpick.errors import CatalogFormatError, MapFileError
 from partpick.fields import KIND_FIELDS, Field, field_of
@@ -145,6 +146,7 @@ def _read_header(name: str, fmt: FileFormat, skip_rows: int) -> tuple[str, ...]:
         first = _pandas_header(name, fmt, skip_rows)
     if not first:  # no record, or a blank first line (as pandas reads it: no columns)
         raise CatalogFormatError(name, "no header row: the file has no lines to read")
+    check_column_count(name, len(first))
     cells = [str(cell).strip() for cell in first]
     return _unique_names([cell or f"(column {i + 1})" for i, cell in enumerate(cells)])
 
@@ -335,7 +337,8 @@ def _validate(item: PreparedFile, frame: list[np.ndarray], lines: np.ndarray, do
     values: dict[str, np.ndarray] = {}
     bad = np.zeros(count, dtype=bool)
     rejects: list[Reject] = []
-    extra_columns = [(h, i) for i, h in enumerate(item.headers) if h in item.plan.unrecognised]
+    kept_as_extra = set(item.plan.unrecognised)  # a set: linear in the column count
+    extra_columns = [(h, i) for i, h in enumerate(item.headers) if h in kept_as_extra]
     notes: list[tuple[str, np.ndarray]] = []
     for match in item.plan.matches:
         column = _convert(frame, match, item)

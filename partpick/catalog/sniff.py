@@ -14,6 +14,7 @@ import io
 from dataclasses import dataclass
 from pathlib import Path
 
+from partpick.catalog.limits import LineGuard
 from partpick.errors import CatalogFormatError
 
 BLOCK_BYTES = 1 << 20
@@ -95,20 +96,22 @@ def _decode_all(path: str | Path, name: str, encoding: str | None) -> tuple[str,
     candidates = [encoding] if encoding else ["utf-8", "cp1252"]
     failures = []
     for candidate in candidates:
-        digest, error = _try_decode(path, candidate)
+        digest, error = _try_decode(path, candidate, name)
         if error is None:
             return candidate, digest
         failures.append(f"{candidate} ({error})")
     raise CatalogFormatError(name, "cannot be decoded as " + " or as ".join(failures))
 
 
-def _try_decode(path: str | Path, encoding: str) -> tuple[str, str | None]:
+def _try_decode(path: str | Path, encoding: str, name: str = "") -> tuple[str, str | None]:
     decoder = codecs.getincrementaldecoder(encoding)(errors="strict")
     digest = hashlib.sha256()
+    guard = LineGuard(name or str(path))  # a huge cell is refused in this same pass
     offset = 0
     with open(path, "rb") as handle:
         while block := handle.read(BLOCK_BYTES):
             digest.update(block)
+            guard.feed(block)
             try:
                 decoder.decode(block)
             except UnicodeDecodeError as exc:

@@ -22,13 +22,13 @@ from __future__ import annotations
 
 import math
 import re
-import tomllib
 from collections.abc import Mapping
 from dataclasses import asdict, dataclass, replace
 from pathlib import Path
 from typing import NamedTuple
 
 from partpick.errors import SpecError, UnitError
+from partpick.textfiles import TextFileError, read_toml
 from partpick.units import parse_quantity
 
 REQUIRED = object()
@@ -232,14 +232,10 @@ def load_spec(path: str | Path | None, overrides: Mapping[str, object] | None = 
 
 def _read_toml(path: Path) -> dict[str, object]:
     try:
-        with path.open("rb") as handle:
-            return tomllib.load(handle)
-    except FileNotFoundError:
-        raise SpecError(key="(file)", reason="no such spec file", file=str(path)) from None
-    except tomllib.TOMLDecodeError as exc:
-        raise SpecError(key="(file)", reason=f"not valid TOML: {exc}", file=str(path)) from None
-    except OSError as exc:
-        raise SpecError(key="(file)", reason=f"cannot be read: {exc}", file=str(path)) from None
+        return read_toml(path)
+    except TextFileError as exc:
+        reason = "no such spec file" if exc.reason == "file not found" else exc.reason
+        raise SpecError(key="(file)", reason=reason, file=str(path)) from None
 
 
 def _reject_unknown(raw: Mapping[str, object], source: str | None) -> None:

@@ -10,13 +10,13 @@ against, and the rule modules read them through the typed sections.
 from __future__ import annotations
 
 import math
-import tomllib
 from collections.abc import Mapping
 from dataclasses import dataclass
 from pathlib import Path
 from types import MappingProxyType
 
 from partpick.errors import ProfileError
+from partpick.textfiles import TextFileError, read_toml
 
 BUILTIN_DIR = Path(__file__).with_name("profiles")
 BUILTINS: tuple[str, ...] = ("standard", "high-rel")
@@ -177,12 +177,9 @@ def _resolve(name_or_file: str, relative_to: Path | None) -> Path:
 
 def _read_toml(path: Path, label: str) -> dict:
     try:
-        with path.open("rb") as handle:
-            return tomllib.load(handle)
-    except tomllib.TOMLDecodeError as exc:
-        raise ProfileError(label, f"is not valid TOML: {exc}") from None
-    except OSError as exc:
-        raise ProfileError(label, f"cannot be read: {exc.strerror}") from None
+        return read_toml(path)
+    except TextFileError as exc:
+        raise ProfileError(label, exc.reason) from None
 
 
 def _load_chain(
