@@ -157,3 +157,23 @@ def test_a_thermal_failure_names_the_theta_ja_and_vf_that_would_pass(tmp_path):
     assert fixes["theta_ja_degc_w"] == pytest.approx(162.5, rel=1e-9)
     assert fixes["vf_v"] == pytest.approx(0.40625, rel=1e-9)
     assert fixes_text(thermal.fixes) == "θJA ≤ 162 °C/W, or VF ≤ 406 mV"
+
+
+def test_pick_json_gives_a_thermal_failure_its_fixes(runner, bundled_db):
+    # 3 A through a Schottky at 60 °C: the losses (Erickson & Maksimovic ch. 3, VF·I) push the
+    # closest diodes over their junction limit; each such failure names the θJA (and the VF)
+    # that alone would pass.
+    result = _run(runner, "pick", LOGGER, "--role", "diode", "--iout", "3A", "--db", bundled_db,
+                  "--format", "json")  # fmt: skip
+    assert result.exit_code == 0, result.output
+    thermal = [
+        (entry["mpn"], reason)
+        for entry in json.loads(result.output)["failed"]
+        for reason in entry["reasons"]
+        if reason["rule"] == "thermal"
+    ]
+    assert thermal
+    for _mpn, reason in thermal:
+        fields = {f["field"] for f in reason["fixes"]}
+        assert "theta_ja_degc_w" in fields
+        assert all(f["comparison"] == "<=" and f["value"] > 0 for f in reason["fixes"])

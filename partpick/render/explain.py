@@ -58,6 +58,7 @@ def explain_json(explanation) -> dict[str, object]:
                 "unit": c.unit,
                 "status": check_status_word(c.status),
                 "missing": list(c.missing),
+                "fixes": [f.to_dict() for f in c.fixes],
                 "message": check_sentence(c, o.count),
             }
             for c in o.checks

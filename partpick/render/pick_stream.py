@@ -109,6 +109,8 @@ class _Slice:
                 for s, lim, u, w in zip(*figures, strict=True)
             ]
             positions = rows.tolist()
+            if rule.fixes:
+                _add_fixes(entries, rule, at)
             if self.messages:
                 for entry, check, j in zip(entries, rule.checks_for(at), positions, strict=True):
                     entry["message"] = check_sentence(check, self.count[j])
@@ -175,3 +177,17 @@ class _Slice:
                 zip(self.mpn, self.manufacturer, reasons, strict=True)
             )
         ]
+
+
+def _add_fixes(entries: list[dict], rule, at: np.ndarray) -> None:
+    """Give each failing entry the single figures that would make it pass (``fixes``)."""
+    failing = (rule.status[at] == FAIL).tolist()
+    columns = [(name, cmp, tidy_array(values[at]).tolist(), unit)
+               for name, cmp, values, unit in rule.fixes]  # fmt: skip
+    for j, entry in enumerate(entries):
+        if failing[j]:
+            entry["fixes"] = [
+                {"field": name, "comparison": cmp, "value": values[j], "unit": unit}
+                for name, cmp, values, unit in columns
+                if values[j] == values[j] and values[j] > 0
+            ]
