@@ -232,7 +232,7 @@ def render_bom_table(bom: Bom, console: Console, detail: str = "normal") -> None
             console.print(alternates)
     console.print(_notes_table(bom, verbose))
     console.print(_summary_table(bom) if verbose else _summary_lines(bom))
-    _render_verification(bom, console)
+    _render_verification(bom, console, verbose)
     console.print(_cautions_panel(bom) if verbose else _cautions_lines(bom))
 
 
@@ -340,8 +340,8 @@ def _alternates_table(bom: Bom) -> Table | None:
 def _notes_table(bom: Bom, verbose: bool) -> Table:
     shown = "every check" if verbose else "the check closest to its limit; --verbose for all"
     table = Table(
-        title=f"derating notes, {bom.profile.name} profile ({shown})",
-        title_justify="left", show_header=False, box=None if not verbose else box.SQUARE,
+        title=f"derating notes ({shown})",
+        title_justify="left", show_header=False, box=None,
         pad_edge=False,
     )  # fmt: skip
     table.add_column("ref", style=STYLE_HEADING, no_wrap=True)
@@ -441,7 +441,9 @@ def _cautions_panel(bom: Bom) -> Panel:
     return Panel(body, title="cautions", title_align="left", border_style=STYLE_CAUTION)
 
 
-def _render_verification(bom: Bom, console: Console) -> None:
+def _render_verification(bom: Bom, console: Console, verbose: bool = True) -> None:
+    """Print the verification; the terms it leaves out only with ``verbose`` (the totals above
+    already list what the estimate does not include)."""
     if bom.verification is None:
         if bom.verification_note:
             console.print(Text(bom.verification_note, style=STYLE_UNVERIFIED))
@@ -458,7 +460,7 @@ def _render_verification(bom: Bom, console: Console) -> None:
         Text("verification: exact steady state of the chosen set, regulated", style=STYLE_HEADING)
     )
     console.print(points_table(result))
-    for line in not_included_lines(result.points):
+    for line in not_included_lines(result.points) if verbose else ():
         console.print(Text(line, style=STYLE_UNVERIFIED))
     render_ratings(result, console)
     for warning in result.warnings:
