@@ -146,3 +146,23 @@ def test_saturation_is_checked_at_the_low_end_of_the_inductance_tolerance():
     roomy = verify_design(SPEC_OBJ, STAGE, [OperatingPoint(6.0, 0.8)], duty=0.75,
                           ratings=replace(RATINGS, isat_a=4.6))  # fmt: skip
     assert not roomy.violations
+
+
+def test_a_leakage_that_runs_away_is_a_violation_not_a_number():
+    # a hand-built Schottky leaking 5 mA at 25 °C behind 150 °C/W: at 60 °C ambient the
+    # leakage alone, 5 mA·2^3.5·~18 V ≈ 1 W, would lift the junction by 150 °C, which
+    # raises the leakage further: no steady Tj (leakage doubling per 10 °C, from memory)
+    stage = replace(STAGE, ir_a=5e-3, diode_theta_ja_degc_w=150.0, diode_tj_max_degc=150.0,
+                    ambient_degc=60.0)  # fmt: skip
+    ratings = replace(RATINGS, diode_tj_max_degc=150.0, diode_theta_ja_degc_w=150.0,
+                      ambient_degc=60.0, isat_a=None)  # fmt: skip
+    result = verify_design(SPEC_OBJ, stage, [OperatingPoint(6.0, 0.8)], duty=0.75,
+                           ratings=ratings)  # fmt: skip
+    assert result.points[0].state.thermal_runaway
+    assert [v.rule for v in result.violations] == ["thermal-runaway"]
+    assert result.to_dict()["violations"][0]["rule"] == "thermal-runaway"
+    # a part leaking a thousand times less settles (the same iteration converges)
+    calm = verify_design(SPEC_OBJ, replace(stage, ir_a=5e-6), [OperatingPoint(6.0, 0.8)],
+                         duty=0.75, ratings=ratings)  # fmt: skip
+    assert not calm.points[0].state.thermal_runaway
+    assert calm.points[0].state.losses_w["leakage"] > 0.0

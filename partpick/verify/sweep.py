@@ -141,6 +141,7 @@ class VerifyResult:
             "points": [p.to_dict() for p in self.points],
             "warnings": [w.to_dict() for w in self.warnings],
             "violations": [v.to_dict() for v in self.violations],
+            "not_included": _not_included_union(self.points),
             "unchecked": [u.to_dict() for u in self.unchecked],
             "regulated": self.regulated,
             "duty": self.duty,
@@ -151,6 +152,15 @@ class VerifyResult:
             "parts": dict(self.stage.parts),
             "notes": list(self.stage.notes),
         }
+
+
+def _not_included_union(points: Sequence[PointResult]) -> list[dict[str, str]]:
+    """Return every loss term left out at any point, once each (term, role, part, figure)."""
+    seen: dict[tuple[str, str], dict[str, str]] = {}
+    for item in points:
+        for gap in item.state.not_included:
+            seen.setdefault((gap.term, gap.part), gap.to_dict())
+    return list(seen.values())
 
 
 def default_points(
