@@ -49,8 +49,11 @@ def test_a_missing_catalog_is_refused_and_not_created(tmp_path, command):
     assert not db.exists()
 
 
-@pytest.mark.parametrize("command", [*READERS, ("import", str(BOM_DATA / "inductors.csv"),
-                                                "--kind", "inductor")], ids=lambda c: c[0])
+@pytest.mark.parametrize(
+    "command",
+    [*READERS, ("import", str(BOM_DATA / "inductors.csv"), "--kind", "inductor")],
+    ids=lambda c: c[0],
+)
 def test_another_programs_database_is_left_alone(tmp_path, command):
     db = tmp_path / "crm.db"
     with sqlite3.connect(db) as conn:

@@ -196,9 +196,7 @@ def test_word_order_case_and_brackets_never_change_the_field(row, order, upper, 
     words = re.findall(r"[\(\[\{][^\)\]\}]*[\)\]\}]|\S+", row["header"])  # a group is a word
     order.shuffle(words)
     text = " ".join(words)
-    text = "".join(
-        c.upper() if upper[i % len(upper)] else c.lower() for i, c in enumerate(text)
-    )
+    text = "".join(c.upper() if upper[i % len(upper)] else c.lower() for i, c in enumerate(text))
     assert _read_as(row["kind"], _restyle(text, style)) == row["field"], text
 
 

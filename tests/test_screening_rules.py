@@ -441,9 +441,35 @@ def test_drain_current(id_a, status):
     assert rule.worst_vin_v[0] == 6.0
 
 
-@pytest.mark.parametrize(("channel", "status"), [("n", PASS), ("p", FAIL), (None, PASS)])
-def test_channel(channel, status):
-    assert switch.channel_rule(np.array([channel], dtype=object)).status[0] == status
+@pytest.mark.parametrize(
+    ("channel", "assume_n", "status"),
+    [
+        # the low-side switch of a boost is an n-channel part (Erickson & Maksimovic, 3rd ed.,
+        # ch. 2: the switch returns to ground); a missing channel is a missing figure
+        ("n", False, PASS),
+        ("p", False, FAIL),
+        (None, False, UNVERIFIED),
+        (None, True, PASS),  # a company profile that sets assume_n_channel = true
+        ("p", True, FAIL),
+    ],
+)
+def test_channel(channel, assume_n, status):
+    rule = switch.channel_rule(np.array([channel], dtype=object), assume_n)
+    assert rule.status[0] == status
+    if status == UNVERIFIED:
+        assert rule.check_at(0).missing == ("channel",)
+
+
+def test_company_profile_may_assume_n_channel(tmp_path):
+    from partpick.screening.profiles import load_profile
+
+    assert load_profile("standard").value("switch.assume_n_channel") == 0.0
+    path = tmp_path / "acme.toml"
+    path.write_text('extends = "standard"\n[switch]\nassume_n_channel = true\n')
+    assert load_profile(str(path)).value("switch.assume_n_channel") == 1.0
+    path.write_text('extends = "standard"\n[switch]\nassume_n_channel = 1\n')
+    with pytest.raises(Exception, match="true or false"):
+        load_profile(str(path))
 
 
 class _Figure:

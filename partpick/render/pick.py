@@ -401,6 +401,8 @@ def profile_table(profile, role: str) -> Table:
 
 
 def _figure_text(value: float, unit: str) -> str:
+    if unit == "flag":
+        return "yes" if value else "no"
     if unit == "fraction":
         return _pct(value)
     if unit == "count":

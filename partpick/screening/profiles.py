@@ -60,6 +60,7 @@ SCHEMA: dict[str, tuple[str, str]] = {
     "switch.thermal_margin_degc": ("degC", "margin"),
     "switch.tj_ceiling_degc": ("degC", "ceiling"),
     "switch.hot_factor": ("count", "factor"),
+    "switch.assume_n_channel": ("flag", "flag"),
 }
 # keys a complete profile may leave out: a dielectric not listed keeps all its capacitance
 _OPTIONAL_PREFIXES = ("capacitor.kept_fraction.",)
@@ -246,6 +247,10 @@ def valid_keys_hint(key: str) -> str:
 
 
 def _check_value(value: object, key: str, label: str) -> float:
+    if SCHEMA[key][1] == "flag":
+        if not isinstance(value, bool):
+            raise ProfileError(label, f"must be true or false (got {value!r})", key)
+        return float(value)
     if isinstance(value, bool) or not isinstance(value, int | float):
         raise ProfileError(label, f"must be a number (got {value!r})", key)
     number = float(value)

@@ -4,7 +4,10 @@ The rules (profile ``standard`` figures in brackets):
 
 * ``drain-voltage``: vsw_max_v ≤ u·VDS [u = 0.8].
 * ``drain-current``: the inductor peak at l_min ≤ u·ID [u = 0.6].
-* ``channel``: a ``p`` channel part fails; a missing channel is taken as ``n``, with a note.
+* ``channel``: a ``p`` channel part fails; a part without a channel is unverified (missing
+  ``channel``), unless the profile sets ``switch.assume_n_channel = true`` (then it is taken
+  as ``n``, with a note). ``standard`` and ``high-rel`` set it false: one policy for a
+  missing figure a rule needs.
 * ``thermal``: T_amb + P·θJA ≤ min(ceiling, Tjmax − margin) [margin 25 °C, no ceiling], where
   P is the sum of (D. Graovac, M. Pürschel and A. Kiep, *MOSFET Power Losses Calculation
   Using the Data-Sheet Parameters*, 2006, via :mod:`partpick.losses`):
@@ -23,6 +26,7 @@ Loss (ranking): P above.
 
 from __future__ import annotations
 
+from dataclasses import replace
 from typing import TYPE_CHECKING
 
 import numpy as np
@@ -34,6 +38,7 @@ from partpick.losses import (
     switch_transition_time_s,
 )
 from partpick.screening.checks import (
+    UNVERIFIED,
     RuleNeeds,
     RuleResult,
     Screen,
@@ -69,7 +74,7 @@ CORE: tuple[str, ...] = ("theta_ja_degc_w", "tj_max_degc", "qgd_c")
 RULES: tuple[RuleNeeds, ...] = (
     RuleNeeds("drain-voltage", ("vds_v",)),
     RuleNeeds("drain-current", ("id_a",)),
-    RuleNeeds("channel", ("channel",), optional=True),
+    RuleNeeds("channel", ("channel",)),  # optional only with switch.assume_n_channel
     RuleNeeds("thermal", ("theta_ja_degc_w", "tj_max_degc", "rds_on_ohm", "qgd_c")),
     RuleNeeds("lifecycle", ("lifecycle",), optional=True),
 )
@@ -116,9 +121,18 @@ def drain_current_rule(il_peak_a: float, il_peak_vin_v, id_a, use: float) -> Rul
     )  # fmt: skip
 
 
-def channel_rule(channel: np.ndarray) -> RuleResult:
-    """Return the rule: the low-side switch of a boost must be an n-channel part."""
-    return flag_rule("channel", np.asarray(channel == "p", dtype=bool))
+def channel_rule(channel: np.ndarray, assume_n: bool = False) -> RuleResult:
+    """Return the rule: the low-side switch of a boost must be an n-channel part.
+
+    A part without a channel is unverified (missing ``channel``) unless ``assume_n``.
+    """
+    rule = flag_rule("channel", np.asarray(channel == "p", dtype=bool))
+    if assume_n:
+        return rule
+    missing = np.asarray(channel == None, dtype=bool)  # noqa: E711 - elementwise on objects
+    status = rule.status.copy()
+    status[missing] = UNVERIFIED
+    return replace(rule, status=status, missing=(("channel", missing),))
 
 
 def thermal_rules(columns, spec, envelope, profile) -> tuple[RuleResult, np.ndarray, list]:
@@ -156,6 +170,7 @@ def screen(
     max_parallel: int,
 ) -> Screen:
     """Return every switch rule over every mosfet in ``columns``."""
+    assume_n = bool(profile.value("switch.assume_n_channel"))
     thermal, loss, notes = thermal_rules(columns, spec, envelope, profile)
     peak = envelope.figures["il_peak_max_a"]
     rules = (
@@ -167,13 +182,13 @@ def screen(
             peak.value, peak.worst_vin_v, columns["id_a"],
             profile.value("switch.drain_current_use"),
         ),
-        channel_rule(columns["channel"]),
+        channel_rule(columns["channel"], assume_n),
         thermal,
         lifecycle_rule(columns["lifecycle"]),
     )  # fmt: skip
     no_channel = np.asarray(columns["channel"] == None, dtype=bool)  # noqa: E711 - object array
     notes += [
-        ("channel not given; taken as n", no_channel),
+        ("channel not given; taken as n (profile assume_n_channel)", no_channel & assume_n),
         *lifecycle_notes(columns["lifecycle"]),
     ]
     count = np.ones(no_channel.shape[0], dtype=np.int64)
