@@ -9,12 +9,13 @@ efficiency stop changing. It returns data; renderers write the table, CSV, Markd
 from __future__ import annotations
 
 from collections.abc import Mapping
-from dataclasses import dataclass, field
+from dataclasses import dataclass, field, replace
 
 import numpy as np
 
 from partpick import losses
 from partpick.bom_losses import cross_part_losses
+from partpick.bom_recheck import Recheck, recheck_at_chosen_parts
 from partpick.design.cautions import stored_energy_j
 from partpick.design.spec import Spec
 from partpick.design.topologies import get_topology
@@ -115,6 +116,7 @@ class Bom:
     verification_note: str | None = None
     picks: dict[str, PickResult] = field(default_factory=dict, repr=False)
     build_qty: int = 1
+    recheck: Recheck | None = None
 
     @property
     def efficiency_is_upper_bound(self) -> bool:
@@ -226,6 +228,20 @@ def build_bom(
         if _rounds_settled(rounds):
             break
         efficiency_used = estimated
+    lines, picks, recheck = recheck_at_chosen_parts(
+        db, round_spec, lines, picks, envelope, profile,
+        dict(rank=rank, max_parallel=max_parallel, top=max(alternates + 1, 3)),
+        lambda result: _choose_line(result, alternates),
+    )  # fmt: skip
+    lines = with_purchasing(db, lines)  # the rechecked lines carry the checks at the parts
+    if recheck is not None and recheck.changed:
+        estimate = estimate_stage_losses(
+            round_spec, lines, profile, envelope, chosen_figures(db, lines)
+        )
+        role_losses, notes = estimate.losses_w, estimate.notes
+        pout_w = round_spec.vout_v * round_spec.iout_a
+        estimated = float(losses.efficiency_from_losses(pout_w, sum(role_losses.values())))
+        rounds[-1] = replace(rounds[-1], efficiency_estimated=estimated, losses_w=role_losses)
     verification, verification_note = (
         verify_chosen_set(round_spec, lines, profile, rounds[-1].efficiency_estimated, db=db)
         if verify
@@ -247,6 +263,7 @@ def build_bom(
         verification=verification,
         verification_note=verification_note,
         build_qty=build_qty,
+        recheck=recheck,
     )
 
 

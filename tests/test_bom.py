@@ -430,3 +430,38 @@ def test_status_words_are_the_same_everywhere(tmp_path, standard):
     assert {line["status"] for line in document["lines"]} <= words
     assert {c["status"] for line in document["lines"] for c in line["checks"]} <= words
     assert {row["status"] for row in csv.DictReader(io.StringIO(bom_csv(bom)))} <= words
+
+
+def test_other_roles_are_rechecked_at_the_chosen_inductor_and_diode(db, standard):
+    # One peak for the whole design. BT-L120B is 12 µH ±10 %, so 10.8 µH at its tolerance:
+    # ΔIL(6 V) = 6·0.7875/(400e3·10.8e-6) = 1.0938 A, peak 3.7647 + 0.5469 = 4.312 A
+    # (TI SLVA372 forms), below the design's 4.368 A at l_min. BT-D340 has VF 0.5 V, so the
+    # switch sees 24 + 0.12/2 + 0.5 = 24.56 V (Erickson & Maksimovic, 3rd ed., ch. 2), not
+    # the 24.76 V of the spec's default 0.7 V.
+    bom = build_bom(db, load_spec(SPEC), profile=standard)
+    r = bom.recheck
+    assert r.inductor_mpn == "BT-L120B"
+    assert r.inductance_min_h == pytest.approx(10.8e-6)
+    assert r.il_peak_a == pytest.approx(4.312, rel=1e-3)
+    assert r.design_il_peak_a == pytest.approx(4.368, rel=1e-3)
+    assert (r.diode_vf_v, r.diode_vf_from) == (0.5, "diode")
+    assert r.vsw_v == pytest.approx(24.56)
+    assert r.design_vsw_v == pytest.approx(24.76)
+    by_role = {line.role: line for line in bom.lines}
+    assert by_role["switch"].choice.check("drain-voltage").stress == pytest.approx(24.56)
+    assert by_role["switch"].choice.check("drain-current").stress == pytest.approx(4.312, rel=1e-3)
+    # the output bank's ripple check at that peak: 0.0942 V + 0.005/4·4.312 A = 0.0996 V
+    ripple = by_role["output-cap"].choice.check("ripple-voltage")
+    assert ripple.stress == pytest.approx(0.0996, rel=2e-3)
+    assert bom_document(bom)["recheck"]["vsw_v"] == pytest.approx(24.56)
+
+
+def test_recheck_falls_back_on_the_spec_drop_without_a_diode_vf():
+    from partpick.bom_recheck import chosen_stresses
+    from partpick.design.topologies import get_topology
+
+    spec = load_spec(SPEC)
+    envelope = get_topology("boost").envelope(spec)
+    # 15 µH without a tolerance takes the profile default 20 % (12 µH); no VF: the spec's 0.7 V
+    low, vf, source = chosen_stresses(spec, envelope, {"inductance_h": 15e-6}, {}, 0.2)
+    assert (low, vf, source) == (pytest.approx(12e-6), 0.7, "spec")

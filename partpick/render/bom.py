@@ -375,6 +375,22 @@ def ripple_line(bom: Bom) -> str | None:
     )
 
 
+def recheck_line(bom: Bom) -> str | None:
+    """Return one line on the recheck at the chosen inductor and diode, or None without one."""
+    r = bom.recheck
+    if r is None:
+        return None
+    vf_from = "the chosen diode's" if r.diode_vf_from == "diode" else "the spec's"
+    changed = "; ".join(f"{role} {old or '—'} → {new or 'no part'}" for role, old, new in r.changed)
+    return (
+        f"one peak: capacitors, diode and switch rechecked at {r.inductor_mpn}'s "
+        f"{eng(r.inductance_min_h, 'H')} (its L·(1 − tol)): peak {eng(r.il_peak_a, 'A')} (design "
+        f"{eng(r.design_il_peak_a, 'A')}), ripple {eng(r.il_ripple_a, 'A')}; switch "
+        f"{eng(r.vsw_v, 'V')} with {vf_from} VF {eng(r.diode_vf_v, 'V')} (design "
+        f"{eng(r.design_vsw_v, 'V')}); " + (f"changed: {changed}" if changed else "no change")
+    )
+
+
 def efficiency_text(bom: Bom) -> str:
     """Return the BOM's efficiency, "≤ 94.1 % (upper bound)" where a loss term is missing."""
     if bom.efficiency_is_upper_bound:
@@ -394,9 +410,9 @@ def _summary_lines(bom: Bom) -> Text:
                     style=STYLE_FAIL)  # fmt: skip
     for note in bom.loss_notes:
         text.append(f"\n{note}", style=STYLE_UNVERIFIED)
-    ripple = ripple_line(bom)
-    if ripple is not None:
-        text.append(f"\n{ripple}", style=None)
+    for line in (ripple_line(bom), recheck_line(bom)):
+        if line is not None:
+            text.append(f"\n{line}", style=None)
     return text
 
 
@@ -423,6 +439,9 @@ def _summary_table(bom: Bom) -> Table:
         )
         table.add_row(f"output ripple with {r.output_count} part(s)", eng(r.vout_ripple_v, "V"))
         table.add_row("full load in CCM with this inductor", "yes" if r.ccm_full_load else "NO")
+    recheck = recheck_line(bom)
+    if recheck is not None:
+        table.add_row(recheck, "")
     if status is None:
         table.add_row("total cost", cost_sentence(bom).removeprefix("total cost "))
     table.add_row("profile", bom.profile.name)

@@ -17,6 +17,7 @@ from partpick.render.bom import (
     line_ratings,
     line_value,
     percent,
+    recheck_line,
     round_sentence,
     totals_status,
 )
@@ -153,6 +154,7 @@ def bom_document(bom: Bom) -> dict:
         "efficiency_used": bom.spec.efficiency,
         "rounds": [dataclasses.asdict(r) for r in bom.rounds],
         "ripple": dataclasses.asdict(bom.ripple) if bom.ripple else None,
+        "recheck": dataclasses.asdict(bom.recheck) if bom.recheck else None,
         "build_qty": bom.build_qty,
         "currency": bom.spec.currency or None,
         "total_cost": bom.total_cost,
@@ -299,4 +301,7 @@ def _loss_rows(bom: Bom) -> list[list[str]]:
             ["output ripple", eng(r.vout_ripple_v, "V")],
             ["full load in CCM", "yes" if r.ccm_full_load else "no"],
         ]
+    recheck = recheck_line(bom)
+    if recheck is not None:
+        rows.append(["recheck", markdown_text(recheck.removeprefix("one peak: "))])
     return rows

@@ -110,14 +110,23 @@ def role_rules(role: str) -> RoleRules:
 
 
 def screen_role(
-    db: str | None, spec: Spec, role: str, *, profile: Profile, max_parallel: int = 4
+    db: str | None,
+    spec: Spec,
+    role: str,
+    *,
+    profile: Profile,
+    max_parallel: int = 4,
+    envelope: Envelope | None = None,
 ) -> tuple[Screen, Envelope]:
-    """Return (every rule of ``role`` over every part of its kind, the stress envelope)."""
+    """Return (every rule of ``role`` over every part of its kind, the stress envelope).
+
+    ``envelope`` replaces the spec's own (the BOM passes the one at its chosen parts).
+    """
     rules = role_rules(role)
     if max_parallel < 1:
         raise ProfileError(profile.name, "must be a whole number of at least 1", "max_parallel")
     topology = get_topology(spec.topology)
-    envelope = topology.envelope(spec)
+    envelope = topology.envelope(spec) if envelope is None else envelope
     columns = read_role_columns(db, rules)
     screen = rules.screen(columns, spec, envelope, topology, profile, max_parallel)
     screen = with_thermal_fixes(with_core_data(screen, rules.core), spec, envelope, profile)
@@ -177,11 +186,14 @@ def rank_role(
     rank: str = "loss",
     max_parallel: int = 4,
     top: int | None = None,
+    envelope: Envelope | None = None,
 ) -> RankedRole:
     """Return every part of ``role``'s kind classified and ordered (see :func:`pick`)."""
     if rank not in RANKS:
         raise NotFoundError("rank", rank, f"Ranks are: {', '.join(RANKS)}.")
-    screen, envelope = screen_role(db, spec, role, profile=profile, max_parallel=max_parallel)
+    screen, envelope = screen_role(
+        db, spec, role, profile=profile, max_parallel=max_parallel, envelope=envelope
+    )
     status = classify(screen)
     keys = ranking_keys(screen, rank)
     mpn = screen.columns["mpn"]
@@ -206,6 +218,7 @@ def pick(
     rank: str = "loss",
     max_parallel: int = 4,
     top: int | None = None,
+    envelope: Envelope | None = None,
 ) -> PickResult:
     """Return every part of ``role``'s kind classified as passed, unverified or failed.
 
@@ -214,8 +227,9 @@ def pick(
     smallest overshoot of the worst one). With ``top=N`` each list holds at most N parts.
     """
     ranked_role = rank_role(
-        db, spec, role, profile=profile, rank=rank, max_parallel=max_parallel, top=top
-    )
+        db, spec, role, profile=profile, rank=rank, max_parallel=max_parallel, top=top,
+        envelope=envelope,
+    )  # fmt: skip
     screen = ranked_role.screen
     lists = {
         name: outcomes_at(screen, ranked_role.orders[name], code)
