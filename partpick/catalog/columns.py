@@ -182,3 +182,23 @@ def _from_sql(url: str, kind: str, wanted: list[Field]) -> dict[str, np.ndarray]
         rows = [tuple(r) for r in conn.execute(query)]
     arrays = encode_rows(wanted, rows)
     return {f.name: decode_field(arrays, f) for f in wanted}
+
+
+def mpn_hits(numbers: np.ndarray, mpn: str) -> np.ndarray:
+    """Return the indices of the parts whose number is ``mpn``.
+
+    An exact match first; without one, case and surrounding spaces do not matter
+    ("  ts-zk40-3a0b " finds TS-ZK40-3A0B). Several indices mean several parts match.
+    """
+    hits = np.flatnonzero(numbers == mpn)
+    if hits.size:
+        return hits
+    wanted = mpn.strip().casefold()
+    folded = np.array([str(n).strip().casefold() for n in numbers.tolist()], dtype=object)
+    return np.flatnonzero(folded == wanted)
+
+
+def describe_parts(numbers: np.ndarray, makers: np.ndarray, hits: np.ndarray) -> str:
+    """Return "TS-1 (Tessaly), ts-1 (Orrin)": the parts at ``hits``, for a message."""
+    listed = [f"{numbers[i]} ({makers[i] or 'no manufacturer'})" for i in hits.tolist()]
+    return ", ".join(sorted(listed))

@@ -13,7 +13,7 @@ from typing import TYPE_CHECKING
 
 import numpy as np
 
-from partpick.catalog.columns import read_columns
+from partpick.catalog.columns import describe_parts, mpn_hits, read_columns
 from partpick.design.topologies import get_topology
 from partpick.errors import NotFoundError, ProfileError
 from partpick.fields import fields_of
@@ -270,9 +270,15 @@ def explain(
 ) -> Explanation:
     """Return every check of the part ``mpn`` for ``role``; NotFoundError if it is not there."""
     screen, envelope = screen_role(db, spec, role, profile=profile, max_parallel=max_parallel)
-    hits = np.flatnonzero(screen.columns["mpn"] == mpn)
+    numbers = screen.columns["mpn"]
+    hits = mpn_hits(numbers, mpn)
     if hits.size == 0:
         raise NotFoundError(f"{screen.kind} part", mpn, _where_else(db, mpn, screen.kind))
+    if hits.size > 1:
+        listed = describe_parts(numbers, screen.columns["manufacturer"], hits)
+        raise NotFoundError(
+            f"single {screen.kind} part", mpn, f"{hits.size} parts match: {listed}."
+        )
     i = int(hits[0])
     status = int(classify(screen)[i])
     return Explanation(
@@ -284,7 +290,7 @@ def explain(
 def _where_else(db: str | None, mpn: str, kind: str) -> str:
     """Return a hint naming the roles that could take ``mpn`` if it is a part of another kind."""
     for other in dict.fromkeys(ROLE_KINDS.values()):
-        if other != kind and np.any(read_columns(db, other, ["mpn"])["mpn"] == mpn):
+        if other != kind and mpn_hits(read_columns(db, other, ["mpn"])["mpn"], mpn).size:
             roles = [r for r, k in ROLE_KINDS.items() if k == other]
             return f"It is a {other}; use --role {' or --role '.join(roles)}."
     return "Check the mpn (see 'partpick parts')."

@@ -34,24 +34,19 @@ def find_part(db: str | None, role: str, mpn: str) -> dict[str, object]:
 
     Raises NotFoundError when no part, or more than one manufacturer's part, has that number.
     """
-    from partpick.catalog.columns import read_columns  # the catalog layer, only when needed
+    from partpick.catalog.columns import describe_parts, mpn_hits, read_columns
 
     kind = ROLE_KINDS[role]
     columns = read_columns(db, kind)
     numbers = columns["mpn"]
-    hits = np.nonzero(numbers == mpn)[0]
-    if hits.size == 0:
-        folded = np.array([str(n).casefold() for n in numbers], dtype=object)
-        hits = np.nonzero(folded == mpn.casefold())[0]
+    hits = mpn_hits(numbers, mpn)  # exact, else ignoring case and surrounding spaces
     if hits.size == 0:
         raise NotFoundError(
             f"{kind}", mpn, "Check the part number, or import its catalog with partpick import."
         )
     if hits.size > 1:
-        makers = ", ".join(sorted({str(columns["manufacturer"][i]) for i in hits}))
-        raise NotFoundError(
-            f"single {kind}", mpn, f"Several manufacturers list it ({makers}); use --bom."
-        )
+        listed = describe_parts(numbers, columns["manufacturer"], hits)
+        raise NotFoundError(f"single {kind}", mpn, f"{hits.size} parts match: {listed}; use --bom.")
     row = int(hits[0])
     return {name: _plain(values[row]) for name, values in columns.items()}
 
