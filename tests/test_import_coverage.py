@@ -114,3 +114,24 @@ def test_the_import_table_says_what_the_missing_columns_cost(runner, db_file, wr
     result = runner.invoke(app, args, terminal_width=200)
     assert result.exit_code == 0, result.output
     assert "no column for irms_a: all 12 parts will be unverified" in result.output
+
+
+def test_fields_lists_units_rules_and_wordings(runner):
+    result = runner.invoke(app, ["fields", "--kind", "inductor", "--format", "json"])
+    assert result.exit_code == 0, result.output
+    entries = {e["field"]: e for e in json.loads(result.output)}
+    assert set(entries) == {f.name for f in fields_of("inductor")}
+    assert entries["isat_a"]["unit"] == "A"
+    assert entries["isat_a"]["rules"] == [
+        {"role": "inductor", "rule": "saturation", "optional": False}
+    ]
+    assert "Saturation Current (Isat)" in entries["isat_a"]["wordings"]
+    assert "Rated Current" in entries["irms_a"]["ambiguous_wordings"]
+
+
+def test_fields_table_and_an_unknown_kind(runner):
+    result = runner.invoke(app, ["fields"], terminal_width=200)
+    assert result.exit_code == 0, result.output
+    assert "mosfet fields" in result.output and "Miller Charge" in result.output
+    bad = runner.invoke(app, ["fields", "--kind", "resistor"])
+    assert bad.exit_code == 2 and "no part kind 'resistor'" in bad.output

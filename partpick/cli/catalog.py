@@ -16,11 +16,13 @@ from partpick.cli.common import DbOption, friendly_errors
 from partpick.errors import ImportInterrupted, StrictImportError
 from partpick.outputs import resolve_output
 from partpick.render.catalog import (
+    fields_json,
     import_json,
     import_progress,
     parts_csv,
     parts_json,
     render_batches,
+    render_fields_table,
     render_import_reports,
     render_parts_table,
     write_rejects_csv,
@@ -145,8 +147,30 @@ def batches_command(db: DbOption = None) -> None:
     render_batches(make_console(), list_batches(db))
 
 
+@friendly_errors
+def fields_command(
+    kind: KindOption = None,
+    output: Annotated[
+        ImportFormat, typer.Option("--format", help="table or json.")
+    ] = ImportFormat.table,
+) -> None:
+    """List the data dictionary: each field's unit, the rules that use it, its header wordings."""
+    from partpick.errors import NotFoundError
+    from partpick.fields import KINDS
+    from partpick.screening.coverage import field_entries
+
+    if kind is not None and kind not in KINDS:
+        raise NotFoundError("part kind", kind, f"Choose one of {', '.join(KINDS)}.")
+    entries = field_entries(kind)
+    if output is ImportFormat.json:
+        typer.echo(fields_json(entries))
+    else:
+        render_fields_table(make_console(), entries)
+
+
 def register(app: typer.Typer) -> None:
     """Add the catalog commands to ``app``."""
     app.command("import")(import_command)
+    app.command("fields")(fields_command)
     app.command("parts")(parts_command)
     app.command("batches")(batches_command)

@@ -27,7 +27,7 @@ if TYPE_CHECKING:  # the catalog core pulls in pandas and SQLAlchemy; only comma
     from partpick.catalog.headers import Unread
     from partpick.catalog.importer import ImportProgress, ImportReport, Reject
     from partpick.catalog.store import Batch
-    from partpick.screening.coverage import FieldGap
+    from partpick.screening.coverage import FieldEntry, FieldGap
 
 _JSON_REJECTS = 100  # the rest are in --rejects OUT.csv
 REJECT_COLUMNS = ("line", "column", "value", "reason")
@@ -339,3 +339,48 @@ def render_batches(console: Console, batches: Sequence[Batch]) -> None:
         counts = "/".join(map(str, (b.added, b.updated, b.unchanged, b.rejected)))
         table.add_row(str(b.id), when, b.kind, Path(b.file).name, b.sha256[:10], counts)
     console.print(table)
+
+
+def render_fields_table(console: Console, entries: Sequence[FieldEntry]) -> None:
+    """Print the data dictionary: per kind, each field with its unit, description, the rules
+    that use it and the header wordings it is read from."""
+    kind = None
+    for e in entries:
+        if e.kind != kind:
+            kind = e.kind
+            console.print(Text(f"{kind} fields", style=STYLE_HEADING))
+        console.print(Text.assemble((f"  {e.name}", "bold"), f"  {_unit_text(e)}  ",
+                                    (e.description, STYLE_MUTED)))  # fmt: skip
+        rules = ", ".join(dict.fromkeys(f"{g.role} {g.rule}" for g in e.rules))
+        if rules:
+            console.print(Text(f"      used by: {rules}"))
+        if e.wordings:
+            console.print(Text(f"      headers: {'; '.join(e.wordings)}"))
+        if e.ambiguous:
+            never = "; ".join(e.ambiguous)
+            console.print(Text(f"      never read alone (may be another field): {never}"))
+
+
+def fields_json(entries: Sequence[FieldEntry]) -> str:
+    """Return the data dictionary as a JSON array, one object per field of each kind."""
+    return json_text(
+        [
+            {
+                "kind": e.kind, "field": e.name, "type": e.type, "unit": e.unit or None,
+                "description": e.description,
+                "rules": [{"role": g.role, "rule": g.rule, "optional": g.optional}
+                          for g in e.rules],
+                "wordings": list(e.wordings), "choices": list(e.choices),
+                "ambiguous_wordings": list(e.ambiguous),
+            }
+            for e in entries
+        ]
+    )  # fmt: skip
+
+
+def _unit_text(entry: FieldEntry) -> str:
+    if entry.type == "enum":
+        return "one of " + ", ".join(entry.choices)
+    if entry.type == "bool":
+        return "yes/no"
+    return entry.unit or entry.type

@@ -12,7 +12,7 @@ from __future__ import annotations
 from collections.abc import Iterable
 from dataclasses import dataclass
 
-from partpick.fields import fields_of
+from partpick.fields import KINDS, ambiguous_wordings, fields_of
 from partpick.screening.pick import ROLE_RULES
 
 
@@ -69,3 +69,37 @@ def coverage_gaps(kind: str, present: Iterable[str]) -> tuple[FieldGap, ...]:
         if f.name in by_field and f.name not in have
     ]
     return tuple(sorted(gaps, key=lambda g: not g.unverified_roles))
+
+
+@dataclass(frozen=True)
+class FieldEntry:
+    """One field of the data dictionary as the ``fields`` command shows it."""
+
+    kind: str
+    name: str
+    type: str
+    unit: str
+    description: str
+    rules: tuple[RuleGap, ...]  # every rule of every role that reads it
+    wordings: tuple[str, ...]  # header wordings read as this field
+    choices: tuple[str, ...]  # an enum's values
+    ambiguous: tuple[str, ...]  # wordings never read, because they might also be this field
+
+
+def field_entries(kind: str | None = None) -> list[FieldEntry]:
+    """Return the data dictionary of ``kind`` (every kind when None), with the rules that
+    use each field and the header wordings it is read from."""
+    kinds = KINDS if kind is None else (kind,)
+    entries = []
+    for each in kinds:
+        used = rule_fields(each)
+        unclear = ambiguous_wordings(each)
+        for f in fields_of(each):
+            entries.append(
+                FieldEntry(
+                    each, f.name, f.type, f.unit, f.description, used.get(f.name, ()),
+                    f.synonyms, f.choices,
+                    tuple(w for w, names in unclear.items() if f.name in names),
+                )
+            )  # fmt: skip
+    return entries
