@@ -197,7 +197,16 @@ def parse_quantity(
         return scaled_exactly(repr(float(text)), scale)
     if is_missing(text):
         return math.nan
+    if unit == "degC" and _KELVIN_RE.match(str(text)):
+        kelvin = float(_KELVIN_RE.match(str(text)).group(1))
+        raise UnitError(
+            str(text), unit, f"a temperature in kelvin; give it in °C ({kelvin:g} K is "
+            f"{kelvin - 273.15:g} °C)",
+        )  # fmt: skip
     return _parse_text(str(text), unit, scale, decimal_comma)
+
+
+_KELVIN_RE = re.compile(r"^\s*([+-]?(?:\d+(?:\.\d*)?|\.\d+))\s*(?:K|kelvin)\s*$")
 
 
 @lru_cache(maxsize=65536)

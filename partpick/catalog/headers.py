@@ -290,9 +290,26 @@ def match_headers(
             continue
         matches.append(_column_match(header, position, *found, map_file, file))
     matches, unread = _settle_double_matches(matches, unread, file)
+    if map_file is not None:
+        _check_mapped_columns_exist(map_file, headers, file)
     return HeaderPlan(
         tuple(matches), tuple(u.header for u in unread), tuple(ignored), tuple(unread)
     )
+
+
+def _check_mapped_columns_exist(map_file: MapFile, headers: Sequence[str], file: str) -> None:
+    """Refuse a map file naming a column the file lacks: its field would be lost unsaid."""
+    present = {h.strip() for h in headers} | {fold_text(h) for h in headers}
+    for header, target in map_file.columns.items():
+        if target == IGNORE or header.strip() in present or fold_text(header) in present:
+            continue
+        listed = ", ".join(repr(h) for h in headers[:8]) + (" …" if len(headers) > 8 else "")
+        raise MapFileError(
+            map_file.path,
+            f"maps the column {header!r} to {target}, but {file} has no such column "
+            f"(its columns: {listed})",
+            f"columns.{header}",
+        )
 
 
 def _folded_map_columns(map_file: MapFile | None) -> dict[str, str]:

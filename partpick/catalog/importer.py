@@ -25,7 +25,7 @@ from dataclasses import dataclass, field
 from pathlib import Path
 from typing import TYPE_CHECKING
 
-from partpick.catalog import columns, identity, merge, sqlite_light
+from partpick.catalog import columns, identity, merge, plausible, sqlite_light
 from partpick.catalog.headers import ColumnMatch, MapFile, Unread, check_map_for_kind, load_map
 from partpick.catalog.location import generation_key, resolve_db_url, snapshot_file, sqlite_file
 from partpick.catalog.reading import WHOLE_ROW, PreparedFile, Reject, prepare_file, read_chunks
@@ -80,6 +80,7 @@ class ImportReport:
     ignored: tuple[str, ...]
     constants: tuple[str, ...]
     unread: tuple[Unread, ...] = ()  # the unrecognised headers, with what might settle them
+    unusual: tuple[Reject, ...] = ()  # implausible values accepted with --allow-unusual
 
     @property
     def fields_present(self) -> tuple[str, ...]:
@@ -100,6 +101,7 @@ def import_catalog(
     progress: ProgressHook | None = None,
     chunk_rows: int = CHUNK_ROWS,
     before_commit: Callable[[list[ImportReport]], None] | None = None,
+    allow_unusual: bool = False,
 ) -> list[ImportReport]:
     """Import ``files`` as parts of ``kind`` into the catalog ``db``; return one report per file.
 
@@ -108,6 +110,8 @@ def import_catalog(
     ``before_commit`` is called with the reports inside the transaction (the CLI writes the
     rejects file there), so its failure leaves the catalog unchanged. A file that is not a
     regular file (a FIFO, ``-`` for stdin) is read once into a temporary copy first.
+    A value outside its plausibility range (:mod:`partpick.ranges`) rejects its row, unless
+    ``allow_unusual``: then it is stored and listed in the report's ``unusual``.
     An interruption raises :class:`~partpick.errors.ImportInterrupted`, which says whether
     the transaction had been committed.
     """
@@ -118,6 +122,7 @@ def import_catalog(
     with spooled_inputs(files) as readable:
         prepared = [prepare_file(path, kind, mapping) for path in readable]
         prepared = [_named_as_given(p, f) for p, f in zip(prepared, files, strict=True)]
+        prepared = [dataclasses.replace(p, allow_unusual=allow_unusual) for p in prepared]
         return _import_prepared(db, kind, prepared, strict, progress, chunk_rows, before_commit)
 
 
@@ -333,6 +338,7 @@ def _import_one(
         rejected=rejected, rejects=tuple(rejects), columns=item.plan.matches,
         unrecognised=item.plan.unrecognised, ignored=item.plan.ignored,
         constants=tuple(item.constants), unread=item.plan.unread,
+        unusual=tuple(written.unusual),
     )  # fmt: skip
 
 
@@ -344,6 +350,7 @@ class _Written:
     kept: int = 0  # rows upserted
     changed: int = 0  # rows SQLite inserted or changed
     rejects: list[Reject] = field(default_factory=list)
+    unusual: list[Reject] = field(default_factory=list)  # accepted with allow_unusual
 
 
 def _write_chunks(
@@ -365,6 +372,9 @@ def _write_chunks(
     headers = {m.field: m.header for m in item.plan.matches}
     for raw in read_chunks(item, chunk_rows):
         chunk = identity.normalise_chunk(raw, makers, headers)
+        chunk, notes = plausible.screen_chunk(chunk, item.kind, headers, item.allow_unusual)
+        if item.allow_unusual:
+            written.unusual += notes
         if bulk:
             added = merge.insert_rows(conn, item.kind, batch_id, chunk.values, chunk.lines)
             written.changed += added

@@ -67,6 +67,7 @@ class PreparedFile:
     constants: dict[str, ColumnValues]
     mpn_header: str
     display: str = ""  # the name the user gave, when ``path`` is a temporary copy (stdin)
+    allow_unusual: bool = False  # store implausible values (with a warning) instead of rejecting
 
     @property
     def name(self) -> str:

@@ -12,7 +12,7 @@ from typing import Annotated
 
 import typer
 
-from partpick.cli.common import DbOption, friendly_errors
+from partpick.cli.common import AllowUnusualOption, DbOption, friendly_errors
 from partpick.errors import ImportInterrupted, StrictImportError
 from partpick.outputs import resolve_output
 from partpick.render.catalog import (
@@ -68,6 +68,7 @@ def import_command(
             "missing fields with the rules they cost, and the counts.",
         ),
     ] = ImportFormat.table,
+    allow_unusual: AllowUnusualOption = False,
     db: DbOption = None,
 ) -> None:
     """Import CSV catalog files; every file of one call goes in one transaction."""
@@ -87,7 +88,7 @@ def import_command(
         with import_progress(console, total) as hook:
             reports = import_catalog(
                 db, files, kind, map_file=map_file, strict=strict, progress=hook,
-                before_commit=save_rejects,
+                before_commit=save_rejects, allow_unusual=allow_unusual,
             )  # fmt: skip
     except StrictImportError as exc:
         if rejects is not None:

@@ -59,6 +59,14 @@ class Rank(StrEnum):
     size = "size"
 
 
+AllowUnusualOption = Annotated[
+    bool,
+    typer.Option(
+        "--allow-unusual",
+        help="Accept values outside the plausibility ranges (with a warning) "
+        "instead of refusing them.",
+    ),
+]
 ProfileOption = Annotated[
     str,
     typer.Option(

@@ -35,14 +35,17 @@ from typing import Annotated, Any, TypeVar
 
 import typer
 
-from partpick.cli.common import friendly_errors
+from partpick.cli.common import AllowUnusualOption, friendly_errors
 from partpick.design.spec import REQUIRED, SPEC_KEYS, Spec, SpecKey, load_spec
+from partpick.errors import SpecError
+from partpick.ranges import unusual_spec_values
 from partpick.units import dimension_name
 
 F = TypeVar("F", bound=Callable[..., Any])
 
 SPEC_PANEL = "Spec (each overrides SPEC.toml)"
 SPEC_FILE_PARAMETER = "spec_file"
+ALLOW_UNUSUAL_PARAMETER = "allow_unusual"
 _OPTION_PREFIX = "spec_option_"
 
 SpecFileArgument = Annotated[
@@ -111,6 +114,34 @@ def spec_from_options(spec_file: str | Path | None, options: Mapping[str, object
     return load_spec(spec_file, {key: value for key, value in options.items() if value is not None})
 
 
+def checked_spec(
+    spec_file: str | Path | None, options: Mapping[str, object], allow_unusual: bool
+) -> Spec:
+    """Return the spec, refusing values outside the plausibility ranges unless allowed.
+
+    Allowed unusual values are named on stderr as warnings.
+    """
+    spec = spec_from_options(spec_file, options)
+    for unusual in unusual_spec_values(spec_values(spec)):
+        if not allow_unusual:
+            raise SpecError(
+                key=unusual.name,
+                reason=f"{unusual.sentence()}; check the unit, or pass --allow-unusual",
+                file=spec.source,
+            )
+        typer.echo(f"warning: spec key {unusual.name!r}: {unusual.sentence()}", err=True)
+    return spec
+
+
+def spec_values(spec: Spec) -> dict[str, float | None]:
+    """Return the spec's numbers by spec key (the pair ``ripple_ratio`` left out)."""
+    return {
+        key: getattr(spec, entry.attribute)
+        for key, entry in SPEC_KEYS.items()
+        if entry.unit is not None and isinstance(entry.attribute, str)
+    }
+
+
 def with_spec_options(command: F) -> F:
     """Replace the ``spec: Spec`` parameter of a typer command by SPEC.toml plus spec options."""
     signature = inspect.signature(command, eval_str=True)
@@ -131,12 +162,21 @@ def with_spec_options(command: F) -> F:
             # typer calls with keywords only, so keyword-only keeps any order of defaults legal.
             parameters.append(parameter.replace(kind=inspect.Parameter.KEYWORD_ONLY))
     parameters.extend(_spec_option_parameters())
+    parameters.append(
+        inspect.Parameter(
+            ALLOW_UNUSUAL_PARAMETER,
+            inspect.Parameter.KEYWORD_ONLY,
+            default=False,
+            annotation=AllowUnusualOption,
+        )
+    )
 
     @functools.wraps(command)
     def wrapper(**kwargs: Any) -> Any:
         spec_file = kwargs.pop(SPEC_FILE_PARAMETER, None)
         options = {key: kwargs.pop(_parameter_name(key), None) for key in SPEC_KEYS}
-        kwargs["spec"] = friendly_errors(spec_from_options)(spec_file, options)
+        allow = kwargs.pop(ALLOW_UNUSUAL_PARAMETER, False)
+        kwargs["spec"] = friendly_errors(checked_spec)(spec_file, options, allow)
         return command(**kwargs)
 
     new_signature = signature.replace(parameters=parameters)

@@ -193,6 +193,8 @@ class Spec:
             self._fail("ripple_ratio", "lo must be below hi, as [lo, hi]", [lo, hi])
         if self.vout_ripple_v >= self.vout_v:
             self._fail("vout_ripple", "must be well below vout", self.vout_ripple_v)
+        if self.vin_ripple_v is not None and self.vin_ripple_v >= self.vin_min_v:
+            self._fail("vin_ripple", "must be well below vin_min", self.vin_ripple_v)
         if self.iout_min_a is not None and self.iout_min_a > self.iout_a:
             self._fail("iout_min", f"is above iout ({self.iout_a:g} A)", self.iout_min_a)
         if self.quiescent_w < 0:

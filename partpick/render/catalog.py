@@ -85,6 +85,9 @@ def render_import_reports(
             console.print(f"[{STYLE_UNVERIFIED}]  {escape(sentence)}[/]")
         if r.rejects:
             _render_rejects(console, r, shown)
+        for note in getattr(r, "unusual", ())[:shown]:
+            console.print(Text(f"  warning: line {note.line}, {note.column}: {note.reason}",
+                               style=STYLE_UNVERIFIED))  # fmt: skip
 
 
 def _render_columns(console: Console, report: ImportReport) -> None:

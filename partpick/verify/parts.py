@@ -17,9 +17,12 @@ from typing import Any
 import numpy as np
 
 from partpick.errors import NotFoundError, ParameterError
+from partpick.verify.bom_check import check_bom_part, check_efficiency
 from partpick.verify.ratings import ratings_from_parts
 from partpick.verify.stage import ROLES, stage_from_parts
 from partpick.verify.sweep import VerifyResult, default_points, verify_design
+
+MAX_OUTPUT_COUNT = 1000  # common practice, no published source: no bank is larger
 
 ROLE_KINDS: dict[str, str] = {
     "inductor": "inductor",
@@ -84,19 +87,25 @@ def parts_from_bom(path: str | Path, db: str | None) -> BomSelection:
         if line is None or not line.get("mpn"):
             raise ParameterError(role, "has no part in this BOM", part=str(path))
         part = line.get("part")
+        if part is not None and not isinstance(part, dict):
+            raise ParameterError("part", "must be a table of fields", role=role, part=str(path))
         if isinstance(part, dict) and part:
+            check_bom_part(role, {"mpn": line["mpn"], **part}, str(path))
             parts[role] = full_part(db, role, str(line["mpn"]), part)
         else:
             parts[role] = find_part(db, role, str(line["mpn"]))
     qty = lines["output-cap"].get("qty", 1)
-    if isinstance(qty, bool) or not isinstance(qty, int) or qty < 1:
-        raise ParameterError("qty", "of the output-cap line must be a whole number", value=qty)
-    efficiency = document.get("efficiency")
+    if isinstance(qty, bool) or not isinstance(qty, int) or not 1 <= qty <= MAX_OUTPUT_COUNT:
+        raise ParameterError(
+            "qty", f"of the output-cap line must be a whole number 1 to {MAX_OUTPUT_COUNT}",
+            value=qty,
+        )  # fmt: skip
+    efficiency = check_efficiency(document.get("efficiency"), str(path))
     profile = document.get("profile")
     return BomSelection(
         parts=parts,
         output_count=qty,
-        efficiency=float(efficiency) if isinstance(efficiency, int | float) else None,
+        efficiency=efficiency,
         profile=profile if isinstance(profile, str) else None,
     )
 
