@@ -63,6 +63,15 @@ def explain_json(explanation) -> dict[str, object]:
             }
             for c in o.checks
         ],
+        "not_checked": [
+            {
+                "rule": u.rule,
+                "missing": list(u.missing),
+                "reason": u.reason,
+                "message": unchecked_sentence(u),
+            }
+            for u in getattr(explanation, "unchecked", ())
+        ],
         "operating_point": operating_point_json(explanation.operating_point),
         "derived": {
             key: _json_number(o.part[key])
@@ -106,6 +115,8 @@ def render_explain(explanation, console: Console) -> None:
             Text(check_status_word(c.status), style=STATUS_STYLES[c.status]),
             check_sentence(c, o.count),
         )
+    for u in getattr(explanation, "unchecked", ()):
+        table.add_row(u.rule, Text("not checked", style=STYLE_MUTED), unchecked_sentence(u))
     console.print(table)
     extra = [f"loss {_q(o.loss_w, 'W')}", f"cost {o.cost:.2f}" if o.cost is not None else ""]
     console.print(Text(", ".join(x for x in extra if x), style=STYLE_MUTED))
@@ -146,6 +157,15 @@ def render_side_by_side(explanations, console: Console) -> None:
     console.print(table)
     for line in context_lines(first.operating_point, first.profile, first.role):
         console.print(Text(line, style=STYLE_MUTED))
+
+
+def unchecked_sentence(unchecked) -> str:
+    """Return why a rule of the role made no check of the part."""
+    if unchecked.missing:
+        return f"{unchecked.rule}: not checked, no {', no '.join(unchecked.missing)} given"
+    if unchecked.reason == "not made for this spec":
+        return f"{unchecked.rule}: not made; the spec does not ask for it"
+    return f"{unchecked.rule}: does not apply to this part"
 
 
 def _cost(cost: float | None) -> str:

@@ -20,6 +20,7 @@ from partpick.fields import fields_of
 from partpick.screening import capacitor, diode, inductor, switch
 from partpick.screening.checks import (
     FAIL,
+    SKIPPED,
     UNVERIFIED,
     Outcome,
     RuleNeeds,
@@ -71,8 +72,8 @@ ROLE_RULES: dict[str, RoleRules] = {
         ROLE_KINDS["switch"], switch.FIELDS, switch.CORE, switch.screen, switch.RULES
     ),
 }  # fmt: skip
-__all__ = ["ROLES", "ROLE_RULES", "PickResult", "RankedRole", "Explanation", "pick", "rank_role",
-           "explain"]  # fmt: skip
+__all__ = ["ROLES", "ROLE_RULES", "PickResult", "RankedRole", "Explanation", "Unchecked", "pick",
+           "rank_role", "explain"]  # fmt: skip
 
 
 @dataclass(frozen=True)
@@ -263,6 +264,17 @@ class Explanation:
     outcome: Outcome
     operating_point: tuple
     max_parallel: int
+    unchecked: tuple[Unchecked, ...] = ()  # the role's rules this part was not checked by
+
+
+@dataclass(frozen=True)
+class Unchecked:
+    """A rule of the role that made no check of the part, and why: the fields it lacks
+    (an optional rule's data), or that the rule does not apply to it or to this spec."""
+
+    rule: str
+    missing: tuple[str, ...]
+    reason: str  # "missing", "not applicable" or "not made for this spec"
 
 
 def explain(
@@ -283,8 +295,21 @@ def explain(
     status = int(classify(screen)[i])
     return Explanation(
         role, profile, envelope, outcomes_at(screen, hits[:1], status)[0], screen.operating_point,
-        max_parallel,
+        max_parallel, unchecked_rules(screen, role_rules(role).rules, i),
     )  # fmt: skip
+
+
+def unchecked_rules(screen: Screen, declared: tuple[RuleNeeds, ...], i: int) -> tuple:
+    """Return an Unchecked for every rule of the role that made no check of part ``i``."""
+    out = []
+    for rule in screen.rules:
+        if rule.rule == "data" or int(rule.status[i]) != SKIPPED:
+            continue
+        missing = tuple(name for name, mask in rule.missing if mask[i])
+        out.append(Unchecked(rule.rule, missing, "missing" if missing else "not applicable"))
+    made = {rule.rule for rule in screen.rules}
+    out += [Unchecked(n.rule, (), "not made for this spec") for n in declared if n.rule not in made]
+    return tuple(out)
 
 
 def _where_else(db: str | None, mpn: str, kind: str) -> str:
