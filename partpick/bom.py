@@ -14,7 +14,7 @@ from dataclasses import dataclass, field, replace
 import numpy as np
 
 from partpick import losses
-from partpick.bom_losses import cross_part_losses
+from partpick.bom_losses import cross_part_losses, switch_heat_from_diode_w
 from partpick.bom_recheck import Recheck, recheck_at_chosen_parts
 from partpick.design.cautions import stored_energy_j
 from partpick.design.spec import Spec
@@ -202,18 +202,7 @@ def build_bom(
     efficiency_used = spec.efficiency
     for number in range(1, max_rounds + 1):
         round_spec = spec.with_efficiency(efficiency_used)
-        picks = {
-            role: pick(
-                db,
-                round_spec,
-                role,
-                profile=profile,
-                rank=rank,
-                max_parallel=max_parallel,
-                top=max(alternates + 1, 3),
-            )
-            for role in ROLES
-        }
+        picks = _pick_roles(db, round_spec, profile, rank, max_parallel, alternates)
         lines = tuple(_choose_line(picks[role], alternates) for role in ROLES)
         lines = with_purchasing(db, lines)
         envelope = picks[ROLES[0]].envelope
@@ -265,6 +254,28 @@ def build_bom(
         build_qty=build_qty,
         recheck=recheck,
     )
+
+
+def _pick_roles(db, spec: Spec, profile: Profile, rank: str, max_parallel: int, alternates: int):
+    """Return the pick of every role; the switch's thermal check includes the chosen diode's.
+
+    The diode's recovered charge and junction capacitance are discharged through the switch
+    at turn-on (Erickson & Maksimovic ch. 4), so the switch is picked after the diode with
+    that loss added to its own (``Spec.switch_extra_loss_w``, :mod:`partpick.bom_losses`).
+    """
+    picks: dict[str, PickResult] = {}
+    for role in ROLES:
+        role_spec = spec
+        if role == "switch" and "diode" in picks:
+            line = _choose_line(picks["diode"], 0)
+            if line.choice is not None:
+                fields = chosen_figures(db, (line,))["diode"]
+                envelope = picks["diode"].envelope
+                role_spec = replace(spec, switch_extra_loss_w=switch_heat_from_diode_w(
+                    spec, envelope, fields))  # fmt: skip
+        picks[role] = pick(db, role_spec, role, profile=profile, rank=rank,
+                           max_parallel=max_parallel, top=max(alternates + 1, 3))  # fmt: skip
+    return picks
 
 
 def _rounds_settled(rounds: list[LossRound]) -> bool:

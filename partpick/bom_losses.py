@@ -95,6 +95,21 @@ def cross_part_losses(
     return added, tuple(gaps), tuple(notes)
 
 
+def switch_heat_from_diode_w(spec, envelope, diode: Mapping[str, object]) -> float:
+    """Return what the diode's Q_rr and C_j dissipate in the switch at turn-on, in W.
+
+    Q_rr·V_R·fsw + ½·C_j·V_sw²·fsw at the worst voltages; a missing figure adds nothing
+    (a Schottky's Q_rr is zero). Source: Erickson & Maksimovic ch. 4.
+    """
+    fsw = spec.fsw_hz
+    qrr = _number(diode, "qrr_c") or 0.0
+    cj = _number(diode, "cj_f") or 0.0
+    return float(
+        losses.diode_recovery_loss_w(qrr, envelope.value("vd_reverse_max_v"), fsw)
+        + losses.switch_coss_loss_w(cj, envelope.value("vsw_max_v"), fsw)
+    )
+
+
 def _core_w(spec, envelope, inductor, il_ripple_a: float, gaps: list[NotIncluded]) -> float:
     """Return the iGSE core loss of the triangle of ``il_ripple_a`` at the largest duty, W."""
     inductance = _number(inductor, "inductance_h")

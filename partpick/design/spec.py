@@ -125,6 +125,10 @@ class Spec:
     # source); 0 W: no controller loss unless the spec states one
     gate_drive_v: float = 10.0
     quiescent_w: float = 0.0
+    # Not a spec key: the loss the rest of the stage dissipates in the switch at turn-on (the
+    # chosen diode's recovered charge and junction capacitance), set by the BOM once the
+    # diode is chosen, so the switch's thermal check includes it.
+    switch_extra_loss_w: float = 0.0
     inductor_tolerance: float = 0.2  # ±20 %: common practice, no published source
     diode_vf_v: float = 0.7  # a conservative silicon drop: common practice, no published source
     topology: str = "boost"
@@ -199,6 +203,8 @@ class Spec:
             self._fail("iout_min", f"is above iout ({self.iout_a:g} A)", self.iout_min_a)
         if self.quiescent_w < 0:
             self._fail("quiescent_w", "cannot be negative", self.quiescent_w)
+        if not (math.isfinite(self.switch_extra_loss_w) and self.switch_extra_loss_w >= 0):
+            raise ValueError(f"switch_extra_loss_w must be ≥ 0 W, got {self.switch_extra_loss_w!r}")
         if not 0 <= self.inductor_tolerance < 1:
             self._fail(
                 "inductor_tolerance", "must be in [0, 1), e.g. 0.2 or '20 %'",

@@ -16,7 +16,10 @@ The rules (profile ``standard`` figures in brackets):
     hot junction; common practice, from memory] (Graovac et al., section 2);
   - switching, ½·V_sw·I_L,avg·(t_r + t_f)·fsw with t_r = t_f = Qgd/I_gate (Graovac et al.,
     section 3, linear overlap, transition times from the Miller charge);
-  - output capacitance, ½·Coss·V_sw²·fsw (Graovac et al., section 3).
+  - output capacitance, ½·Coss·V_sw²·fsw (Graovac et al., section 3);
+  - in a BOM, the chosen diode's recovered charge Q_rr·V·fsw and junction capacitance
+    ½·C_j·V²·fsw, which the switch dissipates at turn-on (Erickson & Maksimovic,
+    *Fundamentals of Power Electronics*, 3rd ed., ch. 4), given as ``spec.switch_extra_loss_w``.
 * ``lifecycle``.
 
 A part without Coss has that (usually small) term left out, with a note; without RDS(on) or
@@ -145,7 +148,9 @@ def thermal_rules(columns, spec, envelope, profile) -> tuple[RuleResult, np.ndar
         envelope.value("vsw_max_v"), envelope.value("il_avg_max_a"), known["qgd_c"],
         spec.gate_drive_a, np.where(coss_missing, 0.0, columns["coss_f"]), spec.fsw_hz,
     )  # fmt: skip
-    tj = junction_temperature_degc(spec.ambient_max_degc, loss, columns["theta_ja_degc_w"])
+    # the chosen diode's recovered charge and Cj are dissipated here too (set by the BOM)
+    heat = loss + getattr(spec, "switch_extra_loss_w", 0.0)
+    tj = junction_temperature_degc(spec.ambient_max_degc, heat, columns["theta_ja_degc_w"])
     limit = junction_limit_degc(
         columns["tj_max_degc"],
         profile.value("switch.thermal_margin_degc"),
