@@ -7,6 +7,8 @@ built-in exception it is closest to, so library users can catch ``ValueError`` a
 
 from __future__ import annotations
 
+import re
+import urllib.parse
 from dataclasses import dataclass, field
 
 
@@ -134,15 +136,38 @@ class NotFoundError(PartpickError, LookupError):
         return f"no {self.what} {self.name!r}.{hint}"
 
 
+_URL_PASSWORD_RE = re.compile(r"^(?P<head>[A-Za-z][\w+.-]*://[^:@/?#]*):(?P<password>.*)@(?=[^@]*$)")
+_QUERY_PASSWORD_RE = re.compile(r"(?P<head>[?&]password=)(?P<password>[^&#]*)")
+
+
+def mask_url(url: str) -> str:
+    """Return ``url`` with any password (``user:secret@`` or ``?password=``) shown as ``***``."""
+    url = _URL_PASSWORD_RE.sub(r"\g<head>:***@", url, count=1)
+    return _QUERY_PASSWORD_RE.sub(r"\g<head>***", url)
+
+
+def _url_passwords(url: str) -> list[str]:
+    found = [m.group("password") for m in _URL_PASSWORD_RE.finditer(url)]
+    found += [m.group("password") for m in _QUERY_PASSWORD_RE.finditer(url)]
+    return [p for p in found + [urllib.parse.unquote(p) for p in found] if p]
+
+
 @dataclass(eq=False)
 class DatabaseError(PartpickError, RuntimeError):
-    """The catalog database cannot be opened or read."""
+    """The catalog database cannot be opened or read.
+
+    The message never shows a password: it is masked in the URL and removed from the reason
+    (a driver may quote the URL it was given).
+    """
 
     url: str
     reason: str
 
     def __str__(self) -> str:
-        return f"catalog database {self.url}: {self.reason}"
+        reason = self.reason
+        for password in _url_passwords(self.url):
+            reason = reason.replace(password, "***")
+        return f"catalog database {mask_url(self.url)}: {mask_url(reason)}"
 
 
 @dataclass(eq=False)

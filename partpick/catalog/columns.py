@@ -4,8 +4,10 @@ Screening reads a whole kind at once (250,000 inductors must arrive in a few ten
 each kind has a columnar snapshot beside an SQLite catalog (``partpick.db.columns/inductor.npz``,
 no pickles). The snapshot records the catalog's ``db_uuid`` and ``generation`` from
 ``catalog_meta``; every import bumps the generation in its transaction, so a stale or foreign
-snapshot is detected with one stdlib ``sqlite3`` query and rebuilt. This module imports neither
-pandas nor SQLAlchemy unless the catalog is not an SQLite file.
+snapshot is detected with one stdlib ``sqlite3`` query and rebuilt. A PostgreSQL catalog
+keeps the same snapshots in each user's cache folder (:mod:`partpick.catalog.pg_columns`).
+This module imports neither pandas nor SQLAlchemy while the snapshot is fresh (an in-memory
+SQLite catalog is read through SQLAlchemy).
 """
 
 from __future__ import annotations
@@ -18,8 +20,10 @@ from pathlib import Path
 
 import numpy as np
 
+from partpick.catalog import pg_columns
 from partpick.catalog.integrity import CatalogFile, can_write, connect_read_only, inspect_catalog
 from partpick.catalog.location import generation_key, resolve_db_url, snapshot_file, sqlite_file
+from partpick.catalog.postgres import is_postgres
 from partpick.catalog.snapshot import (
     META,
     MISSING,
@@ -41,12 +45,15 @@ def read_columns(
     Keys are ``mpn``, ``manufacturer`` and ``names`` (default: every field of the kind).
     Float and int fields are float64 with NaN where missing; text, enum and bool fields are
     object arrays with None where missing, except ``manufacturer``, which is "" where the
-    catalog does not know it (it is part of the identity). An SQLite file catalog is read
-    from its snapshot, rebuilt first if stale; other catalogs through SQL.
+    catalog does not know it (it is part of the identity). An SQLite file or PostgreSQL
+    catalog is read from its snapshot, rebuilt first if stale; an in-memory one through SQL.
     """
     wanted = _wanted_fields(kind, names)
     url = resolve_db_url(db)
     path = sqlite_file(url)
+    if path is None and is_postgres(url):
+        arrays = pg_columns.read_arrays(url, kind, wanted, _load_snapshot)
+        return {f.name: decode_field(arrays, f) for f in wanted}
     if path is None:
         return _from_sql(url, kind, wanted)
     found = _checked_catalog(url, path)

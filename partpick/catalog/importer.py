@@ -9,7 +9,11 @@ of one call is merged inside one transaction.
 An SQLite catalog file is written through the bare ``sqlite3`` driver
 (:mod:`partpick.catalog.sqlite_light`), and a small file is read without pandas
 (:mod:`partpick.catalog.reading`), so a small import loads neither pandas nor SQLAlchemy;
-other catalogs go through SQLAlchemy. The statements are the same plain SQL either way.
+other catalogs go through SQLAlchemy. The statements are the same plain SQL either way,
+up to the write of the rows: on SQLite the chunks go into the parts table directly
+(:mod:`partpick.catalog.merge`), on PostgreSQL through a COPY staging table and one upsert
+per file (:mod:`partpick.catalog.pg_merge`), under an advisory lock on the kind, so two
+importers of it take turns instead of clashing.
 """
 
 from __future__ import annotations
@@ -18,6 +22,7 @@ import contextlib
 import dataclasses
 import datetime as dt
 import gc
+import getpass
 import sqlite3
 import sys
 from collections.abc import Callable, Iterator, Sequence
@@ -25,10 +30,17 @@ from dataclasses import dataclass, field
 from pathlib import Path
 from typing import TYPE_CHECKING
 
-from partpick.catalog import columns, identity, merge, plausible, sqlite_light
+from partpick.catalog import columns, identity, merge, pg_merge, plausible, postgres, sqlite_light
 from partpick.catalog.headers import ColumnMatch, MapFile, Unread, check_map_for_kind, load_map
 from partpick.catalog.location import generation_key, resolve_db_url, snapshot_file, sqlite_file
-from partpick.catalog.reading import WHOLE_ROW, PreparedFile, Reject, prepare_file, read_chunks
+from partpick.catalog.reading import (
+    WHOLE_ROW,
+    Chunk,
+    PreparedFile,
+    Reject,
+    prepare_file,
+    read_chunks,
+)
 from partpick.catalog.snapshot import SnapshotBuilder, sweep_leftovers
 from partpick.catalog.spool import STDIN_NAME, spooled_inputs
 from partpick.catalog.tables import table_name
@@ -131,6 +143,8 @@ def _import_prepared(db, kind, prepared, strict, progress, chunk_rows, before_co
     before = _generation(db, kind)
     try:
         with _cycle_collector_paused(), _transaction(db) as conn:
+            if conn.dialect.name == "postgresql":
+                postgres.lock_kind_for_import(conn, kind)  # a second importer waits here
             builder = _snapshot_builder(db, kind, len(prepared))  # once the catalog is open
             reports = [_import_one(conn, item, strict, progress, chunk_rows, builder)
                        for item in prepared]  # fmt: skip
@@ -138,7 +152,7 @@ def _import_prepared(db, kind, prepared, strict, progress, chunk_rows, before_co
             if before_commit is not None:
                 before_commit(reports)
         _refresh_snapshot(db, kind, builder, stamp)
-    except _write_errors() as exc:  # locked by another writer, disk full, read-only
+    except _write_errors() as exc:  # locked, disk full, read-only; on a server: no grant
         reason = getattr(exc, "orig", None) or exc
         raise DatabaseError(resolve_db_url(db), f"cannot be written ({reason})") from None
     except KeyboardInterrupt:
@@ -212,8 +226,9 @@ def _transaction(db: str | None) -> Iterator:
 def _write_errors() -> tuple[type[Exception], ...]:
     """Return the exception types of a catalog that cannot be written, for either driver."""
     errors: tuple[type[Exception], ...] = (sqlite3.OperationalError,)
-    if "sqlalchemy" in sys.modules:
-        errors += (sys.modules["sqlalchemy"].exc.OperationalError,)
+    if "sqlalchemy" in sys.modules:  # ProgrammingError: a server refused (no INSERT grant)
+        exc = sys.modules["sqlalchemy"].exc
+        errors += (exc.OperationalError, exc.ProgrammingError)
     return errors
 
 
@@ -263,21 +278,30 @@ def bump_generation(conn: sa.Connection, kind: str) -> int:
     """Add one to the catalog's and to ``kind``'s generation in the caller's transaction.
 
     Returns the kind's new generation. Snapshots are stamped per kind, so importing
-    capacitors leaves the inductor snapshot fresh.
+    capacitors leaves the inductor snapshot fresh. The increment is one UPDATE, so two
+    importers (of different kinds) on a server never lose one: the second waits on the row
+    and adds one to the value the first committed.
     """
-    new_values = {}
     for key in ("generation", generation_key(kind)):
-        current = _run(
-            conn, "SELECT value FROM catalog_meta WHERE key = :key", {"key": key}
-        ).scalar()
-        new_values[key] = int(current or 0) + 1
-        change = (
-            "INSERT INTO catalog_meta (key, value) VALUES (:key, :value)"
-            if current is None
-            else "UPDATE catalog_meta SET value = :value WHERE key = :key"
-        )
-        _run(conn, change, {"key": key, "value": str(new_values[key])})
-    return new_values[generation_key(kind)]
+        _run(conn, "UPDATE catalog_meta SET value = CAST(CAST(value AS INTEGER) + 1 AS TEXT) "
+                   "WHERE key = :key", {"key": key})  # fmt: skip
+        stored = _run(conn, "SELECT value FROM catalog_meta WHERE key = :key", {"key": key})
+        if stored.scalar() is None:  # the kind's first import
+            _run(conn, "INSERT INTO catalog_meta (key, value) VALUES (:key, '1')", {"key": key})
+    return int(
+        _run(conn, "SELECT value FROM catalog_meta WHERE key = :key",
+             {"key": generation_key(kind)}).scalar_one()
+    )  # fmt: skip
+
+
+def _importer(conn) -> str | None:
+    """Return who is importing: the database user on a server, the login on SQLite."""
+    if conn.dialect.name == "postgresql":
+        return _run(conn, "SELECT current_user").scalar_one()
+    try:
+        return getpass.getuser()
+    except (KeyError, OSError):
+        return None
 
 
 def _run(conn, sql: str, parameters: dict | None = None):
@@ -312,7 +336,10 @@ def _import_one(
     imported_at = dt.datetime.now(dt.UTC).isoformat(timespec="seconds")
     batch_id = _start_batch(conn, item, imported_at)
     after_id = merge.last_row_id(conn, item.kind)
-    written = _write_chunks(conn, item, batch_id, progress, chunk_rows, builder)
+    if conn.dialect.name == "postgresql":
+        written = _copy_chunks(conn, item, batch_id, progress, chunk_rows)
+    else:
+        written = _write_chunks(conn, item, batch_id, progress, chunk_rows, builder)
     rejects = sorted(written.rejects, key=lambda r: r.line)
     rejected = len({r.line for r in rejects})
     if strict and rejects:
@@ -323,7 +350,11 @@ def _import_one(
             f"line {first.line}, {first.column}: {first.reason}",
             rejects=tuple(rejects),
         )
-    counts = merge.count_changes(conn, item.kind, after_id, written.changed, written.kept)
+    if conn.dialect.name == "postgresql":
+        added = pg_merge.count_added(conn, item.kind, after_id)
+        counts = merge.MergeCounts(added, written.changed - added, written.kept - written.changed)
+    else:
+        counts = merge.count_changes(conn, item.kind, after_id, written.changed, written.kept)
     _run(
         conn,
         "UPDATE import_batches SET rows = :rows, added = :added, updated = :updated, "
@@ -368,13 +399,7 @@ def _write_chunks(
     elif builder is not None:
         builder.invalidate()  # the table keeps earlier parts the spill does not hold
     duplicates = merge.DuplicateFinder(item.kind, batch_id)
-    makers = identity.MakerSpellings(None if bulk else identity.stored_makers(conn, item.kind))
-    headers = {m.field: m.header for m in item.plan.matches}
-    for raw in read_chunks(item, chunk_rows):
-        chunk = identity.normalise_chunk(raw, makers, headers)
-        chunk, notes = plausible.screen_chunk(chunk, item.kind, headers, item.allow_unusual)
-        if item.allow_unusual:
-            written.unusual += notes
+    for chunk in _checked_chunks(conn, item, chunk_rows, bulk, written):
         if bulk:
             added = merge.insert_rows(conn, item.kind, batch_id, chunk.values, chunk.lines)
             written.changed += added
@@ -394,6 +419,50 @@ def _write_chunks(
             )
     if bulk:
         _finish_bulk_load(conn, item, batch_id, builder, written)
+    return written
+
+
+def _checked_chunks(
+    conn: sa.Connection, item: PreparedFile, chunk_rows: int, fresh: bool, written: _Written
+) -> Iterator[Chunk]:
+    """Yield the file's chunks with clean identities and implausible values screened.
+
+    The same on both back-ends. ``fresh``: the kind's table is empty, so the file's own
+    first spelling of each manufacturer is kept (else the catalog's).
+    """
+    makers = identity.MakerSpellings(None if fresh else identity.stored_makers(conn, item.kind))
+    headers = {m.field: m.header for m in item.plan.matches}
+    for raw in read_chunks(item, chunk_rows):
+        chunk = identity.normalise_chunk(raw, makers, headers)
+        chunk, notes = plausible.screen_chunk(chunk, item.kind, headers, item.allow_unusual)
+        if item.allow_unusual:
+            written.unusual += notes
+        yield chunk
+
+
+def _copy_chunks(
+    conn: sa.Connection,
+    item: PreparedFile,
+    batch_id: int,
+    progress: ProgressHook | None,
+    chunk_rows: int,
+) -> _Written:
+    """PostgreSQL: COPY every chunk into the staging table, drop repeats, upsert once."""
+    written = _Written()
+    pg_merge.start_staging(conn, item.kind)
+    fresh = merge.is_empty(conn, item.kind)
+    for chunk in _checked_chunks(conn, item, chunk_rows, fresh, written):
+        written.kept += pg_merge.copy_rows(conn, item.kind, chunk.values, chunk.lines)
+        written.rows += chunk.row_count + sum(r.column == WHOLE_ROW for r in chunk.rejects)
+        written.rejects += chunk.rejects
+        if progress is not None:
+            progress(
+                ImportProgress(item.name, chunk.bytes_done, item.format.size_bytes, written.rows)
+            )
+    repeats = pg_merge.take_repeats(conn, item.kind)
+    written.kept -= len(repeats)
+    written.rejects += _repeat_rejects(item, repeats)
+    written.changed = pg_merge.upsert_staged(conn, item.kind, batch_id)
     return written
 
 
@@ -430,10 +499,10 @@ def _start_batch(conn: sa.Connection, item: PreparedFile, imported_at: str) -> i
     result = _run(
         conn,
         "INSERT INTO import_batches (file, sha256, imported_at, kind, rows, added, updated, "
-        "unchanged, rejected) VALUES (:file, :sha256, :imported_at, :kind, 0, 0, 0, 0, 0) "
-        "RETURNING id",
+        "unchanged, rejected, imported_by) VALUES (:file, :sha256, :imported_at, :kind, "
+        "0, 0, 0, 0, 0, :imported_by) RETURNING id",
         {"file": item.display or str(Path(item.path).resolve()), "sha256": item.format.sha256,
-         "imported_at": imported_at, "kind": item.kind},
+         "imported_at": imported_at, "kind": item.kind, "imported_by": _importer(conn)},
     )  # fmt: skip
     return int(result.scalar_one())
 

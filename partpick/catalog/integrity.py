@@ -7,7 +7,7 @@ Standard library only, so the fast read path (``pick``) pays nothing for them.
   empty file behind).
 * A database that holds tables but no partpick catalog belongs to another program and is
   refused, by reading commands and by ``import`` alike.
-* A catalog written by another schema version is refused.
+* A catalog written by a newer schema version, or one too old to upgrade, is refused.
 * Reading needs no write access: the file is opened read-only, and in a folder nobody may
   write (so no import can be running) it is opened as immutable, since SQLite could not
   create the WAL index file there.
@@ -21,7 +21,7 @@ import sqlite3
 from dataclasses import dataclass
 from pathlib import Path
 
-from partpick.catalog.tables import SCHEMA_VERSION
+from partpick.catalog.tables import SCHEMA_VERSION, version_refusal
 from partpick.errors import DatabaseError, NoCatalogError
 
 _OWN_TABLES = ("catalog_meta", "import_batches")
@@ -113,13 +113,9 @@ def _check_ownership(url: str, found: CatalogFile) -> None:
             f"holds other tables ({listed}) and no partpick catalog; "
             "give --db a new file for the catalog",
         )
-    version = found.meta.get("schema_version", SCHEMA_VERSION)
-    if version != SCHEMA_VERSION:
-        raise DatabaseError(
-            url,
-            f"made by another partpick version (schema {version}, this one reads "
-            f"{SCHEMA_VERSION}); import your CSV files into a new catalog file",
-        )
+    refusal = version_refusal(found.meta.get("schema_version", SCHEMA_VERSION))
+    if refusal is not None:  # an older version it can upgrade is upgraded when opened
+        raise DatabaseError(url, refusal)
 
 
 def can_write(path: Path) -> bool:

@@ -19,6 +19,7 @@ that the columnar snapshot (:mod:`partpick.catalog.columns`) checks for freshnes
 from __future__ import annotations
 
 from sqlalchemy import (
+    BigInteger,
     Boolean,
     Column,
     Float,
@@ -41,6 +42,8 @@ from partpick.catalog.tables import (  # noqa: F401 - re-exported for the module
 from partpick.fields import KINDS, Field
 
 metadata = MetaData()
+# SQLite's INTEGER holds 64 bits; PostgreSQL's integer only 32, so count fields use bigint there.
+WHOLE_NUMBER = Integer().with_variant(BigInteger(), "postgresql")
 
 import_batches = Table(
     "import_batches",
@@ -55,6 +58,7 @@ import_batches = Table(
     Column("updated", Integer, nullable=False),
     Column("unchanged", Integer, nullable=False),
     Column("rejected", Integer, nullable=False),
+    Column("imported_by", Text),  # the database user (server) or login (SQLite); schema 5
 )
 
 catalog_meta = Table(
@@ -68,8 +72,8 @@ catalog_meta = Table(
 def _column_for(f: Field) -> Column:
     if f.type == "float":
         return Column(f.name, Float, comment=f"{f.description} [{f.unit}]")
-    if f.type == "int":
-        return Column(f.name, Integer, comment=f.description)
+    if f.type == "int":  # 64 bits on both back-ends (a stock count can pass 2**31)
+        return Column(f.name, WHOLE_NUMBER, comment=f.description)
     if f.type == "bool":
         return Column(f.name, Boolean, comment=f.description)
     return Column(f.name, Text, comment=f.description)

@@ -195,7 +195,7 @@ def create_statements() -> list[str]:
         "sha256 VARCHAR(64) NOT NULL, imported_at VARCHAR(32) NOT NULL, "
         "kind VARCHAR(16) NOT NULL, rows INTEGER NOT NULL, added INTEGER NOT NULL, "
         "updated INTEGER NOT NULL, unchanged INTEGER NOT NULL, rejected INTEGER NOT NULL, "
-        "PRIMARY KEY (id))",
+        "imported_by TEXT, PRIMARY KEY (id))",
         'CREATE TABLE catalog_meta ("key" VARCHAR(32) NOT NULL, value TEXT NOT NULL, '
         'PRIMARY KEY ("key"))',
     ]

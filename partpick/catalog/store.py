@@ -2,7 +2,10 @@
 
 The database is named by ``--db``, else ``$PARTPICK_DB``, else ``./partpick.db``. A plain path
 becomes an SQLite URL; anything with ``://`` is taken as an SQLAlchemy URL. SQLite runs in WAL
-mode, so a reader never sees a half-finished import.
+mode, so a reader never sees a half-finished import. A ``postgresql://`` URL opens a team
+catalog on a PostgreSQL server through psycopg 3 (:mod:`partpick.catalog.postgres`); the
+schema is the same. Opening a catalog creates its tables, upgrades an older schema in place
+(:mod:`partpick.catalog.migrations`) and adds the columns of fields added since.
 """
 
 from __future__ import annotations
@@ -13,6 +16,7 @@ from dataclasses import dataclass
 import sqlalchemy as sa
 from sqlalchemy import event, func, select
 
+from partpick.catalog import migrations, postgres
 from partpick.catalog.integrity import inspect_catalog
 from partpick.catalog.location import resolve_db_url, sqlite_file
 from partpick.catalog.schema import PARTS_TABLES, catalog_meta, import_batches, metadata
@@ -38,6 +42,7 @@ class Batch:
     updated: int
     unchanged: int
     rejected: int
+    imported_by: str | None = None
 
 
 def open_engine(db: str | None) -> sa.Engine:
@@ -55,6 +60,24 @@ _ENGINES: dict[str, sa.Engine] = {}
 
 
 def _new_engine(url: str) -> sa.Engine:
+    try:
+        engine = _postgres_engine(url) if postgres.is_postgres(url) else _sqlite_engine(url)
+    except (sa.exc.ArgumentError, sa.exc.NoSuchModuleError, ImportError, ValueError) as exc:
+        raise DatabaseError(url, f"not a usable database URL ({exc})") from None
+    try:
+        _create_schema(engine)
+    except sa.exc.DatabaseError as exc:
+        engine.dispose()
+        if engine.dialect.name == "postgresql":
+            raise DatabaseError(url, postgres.connection_reason(exc)) from None
+        raise DatabaseError(url, f"cannot be opened ({exc.orig})") from None
+    except BaseException:
+        engine.dispose()
+        raise
+    return engine
+
+
+def _sqlite_engine(url: str) -> sa.Engine:
     path = sqlite_file(url)
     if path is not None and not path.parent.is_dir():
         raise DatabaseError(url, f"the folder {path.parent} does not exist")
@@ -65,21 +88,17 @@ def _new_engine(url: str) -> sa.Engine:
         # an in-memory catalog lives as long as its one connection: keep exactly one
         options = {"poolclass": sa.pool.StaticPool,
                    "connect_args": {"check_same_thread": False}}  # fmt: skip
-    try:
-        engine = sa.create_engine(url, **options)
-    except (sa.exc.ArgumentError, sa.exc.NoSuchModuleError, ImportError) as exc:
-        raise DatabaseError(url, f"not a usable database URL ({exc})") from None
+    engine = sa.create_engine(url, **options)
     if engine.dialect.name == "sqlite":
         event.listen(engine, "connect", _sqlite_pragmas)
-    try:
-        _create_schema(engine)
-    except sa.exc.DatabaseError as exc:
-        engine.dispose()
-        raise DatabaseError(url, f"cannot be opened ({exc.orig})") from None
-    except DatabaseError:
-        engine.dispose()
-        raise
     return engine
+
+
+def _postgres_engine(url: str) -> sa.Engine:
+    reason = postgres.missing_driver_reason()
+    if reason is not None:
+        raise DatabaseError(url, reason)
+    return postgres.create_engine(url)
 
 
 def _sqlite_pragmas(dbapi_connection, _record) -> None:
@@ -88,15 +107,13 @@ def _sqlite_pragmas(dbapi_connection, _record) -> None:
 
 def _create_schema(engine: sa.Engine) -> None:
     with engine.begin() as conn:
+        if conn.dialect.name == "postgresql":  # one process at a time creates or upgrades
+            postgres.lock(conn, postgres.SCHEMA_LOCK)
         metadata.create_all(conn)
         known = dict(conn.execute(select(catalog_meta.c.key, catalog_meta.c.value)).all())
         version = known.get("schema_version", SCHEMA_VERSION)
         if version != SCHEMA_VERSION:
-            raise DatabaseError(
-                str(engine.url),
-                f"made by another partpick version (schema {version}, this one reads "
-                f"{SCHEMA_VERSION}); import your CSV files into a new catalog file",
-            )
+            migrations.upgrade(conn, engine.url.render_as_string(), version)
         _add_missing_columns(conn)
         defaults = {
             "generation": "0",
@@ -109,7 +126,11 @@ def _create_schema(engine: sa.Engine) -> None:
 
 
 def _add_missing_columns(conn: sa.Connection) -> None:
-    """Add columns for fields added to the data dictionary since the database was made."""
+    """Add columns for fields added to the data dictionary since the database was made.
+
+    On PostgreSQL this runs under the schema lock; the ALTER TABLE waits for running imports
+    of that kind (it happens once, after partpick gained a field).
+    """
     inspector = sa.inspect(conn)
     for table in PARTS_TABLES.values():
         present = {c["name"] for c in inspector.get_columns(table.name)}

@@ -9,10 +9,31 @@ from __future__ import annotations
 
 from partpick.fields import Field, fields_of
 
-# 2: identity as a named unique index (droppable for bulk loads), no CHECK constraints.
-# 3: file, sha256 and import time live only in import_batches; parts keep line and batch.
-# 4: the identity index is (mpn, manufacturer), the kind being one per table.
-SCHEMA_VERSION = "4"
+# The history, and the steps upgrading an older catalog in place: catalog/migrations.py.
+SCHEMA_VERSION = "5"
+OLDEST_UPGRADABLE = "4"  # a catalog of this version or later is upgraded on open
+
+
+def version_refusal(version: str) -> str | None:
+    """Return why a catalog of schema ``version`` cannot be used, or None when it can.
+
+    The current version and every older one from :data:`OLDEST_UPGRADABLE` on can (the older
+    ones are upgraded in place when the catalog is opened for writing).
+    """
+    if not version.isdigit():
+        return f"holds an unknown schema version {version!r}; import into a new catalog"
+    if int(version) > int(SCHEMA_VERSION):
+        return (
+            f"made by a newer partpick (schema {version}, this one reads up to "
+            f"{SCHEMA_VERSION}); upgrade partpick to use it"
+        )
+    if int(version) < int(OLDEST_UPGRADABLE):
+        return (
+            f"made by an early partpick (schema {version}; this one upgrades schema "
+            f"{OLDEST_UPGRADABLE} and later); import your CSV files into a new catalog file "
+            "or database"
+        )
+    return None
 
 IDENTITY_COLUMNS: tuple[str, ...] = ("kind", "manufacturer", "mpn")
 # The unique index holds (mpn, manufacturer): each table holds one kind, so this is the

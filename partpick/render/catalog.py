@@ -337,10 +337,14 @@ def render_batches(console: Console, batches: Sequence[Batch]) -> None:
     table.add_column("file", overflow="fold", min_width=12)
     table.add_column("sha256", no_wrap=True)
     table.add_column("counts", justify="right", no_wrap=True)
+    who = any(b.imported_by for b in batches)  # recorded since schema 5
+    if who:
+        table.add_column("by", overflow="fold")
     for b in batches:
         when = b.imported_at.replace("T", " ")[:16]
         counts = "/".join(map(str, (b.added, b.updated, b.unchanged, b.rejected)))
-        table.add_row(str(b.id), when, b.kind, Path(b.file).name, b.sha256[:10], counts)
+        cells = [str(b.id), when, b.kind, Path(b.file).name, b.sha256[:10], counts]
+        table.add_row(*cells, *([b.imported_by or "-"] if who else []))
     console.print(table)
 
 
