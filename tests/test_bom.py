@@ -45,6 +45,7 @@ from partpick.render.bom_report import bom_csv, bom_document, bom_markdown
 from partpick.screening.checks import Outcome
 from partpick.screening.pick import pick
 from partpick.screening.profiles import load_profile
+from tests.backends import new_catalog
 
 DATA = Path(__file__).parent / "data" / "bom"
 SPEC = DATA / "spec.toml"
@@ -56,17 +57,18 @@ KIND_FILES = {
 }
 
 
-def _catalog(tmp_path: Path, **replace: str) -> str:
+def _catalog(tmp_path: Path, backend: str = "sqlite", **replace: str) -> str:
     """Import the test catalog into a fresh database; ``replace`` swaps a kind's file."""
-    db = str(tmp_path / "bom.db")
+    db = new_catalog(backend, tmp_path, "bom.db")
     for kind, name in {**KIND_FILES, **replace}.items():
         import_catalog(db, [DATA / name], kind=kind)
     return db
 
 
 @pytest.fixture
-def db(tmp_path: Path) -> str:
-    return _catalog(tmp_path)
+def db(tmp_path: Path, catalog_backend: str) -> str:
+    """Function scope: the test catalog on each back-end."""
+    return _catalog(tmp_path, catalog_backend)
 
 
 @pytest.fixture

@@ -23,6 +23,7 @@ from partpick.design.spec import load_spec
 from partpick.design.topologies import analyse
 from partpick.screening.pick import pick
 from partpick.screening.profiles import load_profile
+from tests.backends import new_catalog
 
 CATALOGS = Path(__file__).parents[1] / "catalogs"
 FILES = {
@@ -45,9 +46,11 @@ FIELD_LOGGER = CATALOGS / "scenarios" / "field-logger.toml"
 
 
 @pytest.fixture(scope="module")
-def bundled_db(tmp_path_factory: pytest.TempPathFactory) -> tuple[str, dict]:
-    """Module scope: a catalog file holding the four bundled CSVs, and the import reports."""
-    db = str(tmp_path_factory.mktemp("bundled") / "bundled.db")
+def bundled_db(
+    tmp_path_factory: pytest.TempPathFactory, catalog_backend: str
+) -> tuple[str, dict]:
+    """Module scope: a catalog (each back-end) holding the four bundled CSVs, and the reports."""
+    db = new_catalog(catalog_backend, tmp_path_factory.mktemp("bundled"))
     reports = {kind: import_catalog(db, [CATALOGS / name], kind)[0] for kind, name in FILES.items()}
     return db, reports
 

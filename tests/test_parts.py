@@ -22,11 +22,11 @@ CAPS = CATALOG_DATA / "capacitors_small.csv"
 
 
 @pytest.fixture
-def filled(db_file):
+def filled(catalog_db):
     """Function scope: a catalog holding the small inductor and capacitor files."""
-    import_catalog(db_file, [SMALL], "inductor")
-    import_catalog(db_file, [CAPS], "capacitor")
-    return db_file
+    import_catalog(catalog_db, [SMALL], "inductor")
+    import_catalog(catalog_db, [CAPS], "capacitor")
+    return catalog_db
 
 
 @pytest.mark.parametrize(
@@ -134,9 +134,10 @@ def test_csv_output_reimports_to_the_same_parts(runner, filled, tmp_path):
     assert list_parts(other, "inductor") == list_parts(filled, "inductor")
 
 
-def test_csv_output_neutralises_formula_text(runner, db_file, write_csv):
-    import_catalog(db_file, [write_csv("MPN,Inductance\n=cmd|x,1 uH\n")], "inductor")
-    result = runner.invoke(app, ["parts", "--kind", "inductor", "--format", "csv", "--db", db_file])
+def test_csv_output_neutralises_formula_text(runner, catalog_db, write_csv):
+    import_catalog(catalog_db, [write_csv("MPN,Inductance\n=cmd|x,1 uH\n")], "inductor")
+    args = ["parts", "--kind", "inductor", "--format", "csv", "--db", catalog_db]
+    result = runner.invoke(app, args)
     (row,) = list(csv.DictReader(io.StringIO(result.output)))
     assert row["mpn"] == "'=cmd|x"
 
@@ -165,10 +166,10 @@ def test_parts_errors_exit_2_without_traceback(runner, filled, args, code, messa
     assert message in result.output and "Traceback" not in result.output
 
 
-def test_parts_table_on_an_empty_catalog(runner, db_file):
+def test_parts_table_on_an_empty_catalog(runner, catalog_db):
     from partpick.catalog.store import open_engine
 
-    open_engine(db_file)  # a catalog with its tables and no parts
-    result = runner.invoke(app, ["parts", "--kind", "diode", "--db", db_file])
+    open_engine(catalog_db)  # a catalog with its tables and no parts
+    result = runner.invoke(app, ["parts", "--kind", "diode", "--db", catalog_db])
     assert result.exit_code == 0, result.output
     assert "0 diode part(s)" in result.output

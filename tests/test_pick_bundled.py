@@ -18,6 +18,7 @@ from partpick.catalog.importer import import_catalog
 from partpick.design.spec import load_spec
 from partpick.screening.pick import ROLES, pick
 from partpick.screening.profiles import load_profile
+from tests.backends import new_catalog
 
 ROOT = Path(__file__).resolve().parent.parent
 CATALOGS = ROOT / "catalogs"
@@ -31,12 +32,12 @@ SCENARIOS = sorted((CATALOGS / "scenarios").glob("*.toml"))
 
 
 @pytest.fixture(scope="module")
-def bundled(tmp_path_factory) -> str:
-    """A file database with the four bundled catalogs (module scope)."""
+def bundled(tmp_path_factory, catalog_backend) -> str:
+    """A catalog with the four bundled catalogs, on each back-end (module scope)."""
     missing = [name for name in FILES.values() if not (CATALOGS / name).exists()]
     if missing:
         pytest.skip(f"bundled catalogs not present: {missing}")
-    db = str(tmp_path_factory.mktemp("bundled") / "parts.db")
+    db = new_catalog(catalog_backend, tmp_path_factory.mktemp("bundled"))
     for kind, name in FILES.items():
         import_catalog(db, [CATALOGS / name], kind)
     return db

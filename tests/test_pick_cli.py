@@ -10,6 +10,7 @@ from typer.testing import CliRunner
 
 from partpick.catalog.importer import import_catalog
 from partpick.cli import app
+from tests.backends import new_catalog
 
 DATA = Path(__file__).parent / "data" / "screening"
 SPEC = str(DATA / "spec.toml")
@@ -17,9 +18,9 @@ runner = CliRunner()
 
 
 @pytest.fixture(scope="module")
-def db(tmp_path_factory) -> str:
-    """A file database with the invented inductors and capacitors (module scope)."""
-    path = str(tmp_path_factory.mktemp("pickcli") / "parts.db")
+def db(tmp_path_factory, catalog_backend) -> str:
+    """A catalog with the invented inductors and capacitors, on each back-end (module scope)."""
+    path = new_catalog(catalog_backend, tmp_path_factory.mktemp("pickcli"))
     import_catalog(path, [DATA / "inductors.csv"], "inductor")
     import_catalog(path, [DATA / "capacitors.csv"], "capacitor")
     return path
