@@ -95,6 +95,22 @@ def efficiency_text(bom: Bom) -> str:
     return percent(bom.efficiency, 1)
 
 
+def recheck_line(bom: Bom) -> str | None:
+    """Return one line on the recheck at the chosen inductor and diode, or None without one."""
+    r = bom.recheck
+    if r is None:
+        return None
+    vf_from = "the chosen diode's" if r.diode_vf_from == "diode" else "the spec's"
+    changed = "; ".join(f"{role} {old or '—'} → {new or 'no part'}" for role, old, new in r.changed)
+    return (
+        f"one peak: capacitors, diode and switch rechecked at {r.inductor_mpn}'s "
+        f"{eng(r.inductance_min_h, 'H')} (its L·(1 − tol)): peak {eng(r.il_peak_a, 'A')} (design "
+        f"{eng(r.design_il_peak_a, 'A')}), ripple {eng(r.il_ripple_a, 'A')}; switch "
+        f"{eng(r.vsw_v, 'V')} with {vf_from} VF {eng(r.diode_vf_v, 'V')} (design "
+        f"{eng(r.design_vsw_v, 'V')}); " + (f"changed: {changed}" if changed else "no change")
+    )
+
+
 def totals_status(bom: Bom) -> str | None:
     """Return "incomplete: n roles without a part (…)", or None for a complete BOM."""
     missing = bom.roles_without_part

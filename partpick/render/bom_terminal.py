@@ -24,6 +24,7 @@ from partpick.render.bom import (
     line_notes,
     line_ratings,
     price,
+    recheck_line,
     round_sentence,
     totals_status,
 )
@@ -195,22 +196,6 @@ def ripple_line(bom: Bom) -> str | None:
         f"ripple: inductor {eng(r.il_ripple_nominal_a, 'A')} at nominal L, "
         f"{eng(r.il_ripple_min_l_a, 'A')} at minimum L ({eng(r.inductance_min_h, 'H')})"
         f"{output}; full load {ccm}"
-    )
-
-
-def recheck_line(bom: Bom) -> str | None:
-    """Return one line on the recheck at the chosen inductor and diode, or None without one."""
-    r = bom.recheck
-    if r is None:
-        return None
-    vf_from = "the chosen diode's" if r.diode_vf_from == "diode" else "the spec's"
-    changed = "; ".join(f"{role} {old or '—'} → {new or 'no part'}" for role, old, new in r.changed)
-    return (
-        f"one peak: capacitors, diode and switch rechecked at {r.inductor_mpn}'s "
-        f"{eng(r.inductance_min_h, 'H')} (its L·(1 − tol)): peak {eng(r.il_peak_a, 'A')} (design "
-        f"{eng(r.design_il_peak_a, 'A')}), ripple {eng(r.il_ripple_a, 'A')}; switch "
-        f"{eng(r.vsw_v, 'V')} with {vf_from} VF {eng(r.diode_vf_v, 'V')} (design "
-        f"{eng(r.design_vsw_v, 'V')}); " + (f"changed: {changed}" if changed else "no change")
     )
 
 
