@@ -312,3 +312,34 @@ def test_pick_json_and_explain_report_c_eff(tmp_path):
     )
     assert explained.exit_code == 0, explained.output
     assert "5.4 µF" in explained.output and "datasheet point" in explained.output
+
+
+# an independent model of the output bank: the table read by hand (np.interp on the
+# standard x7r/x5r points, from memory), the TI SLVA372 ripple form, the smallest n ≤ 4
+X7R = ((0.0, 0.1, 0.25, 0.5, 0.8, 1.0), (1.0, 0.92, 0.78, 0.50, 0.32, 0.26))
+X5R = ((0.0, 0.1, 0.25, 0.5, 0.8, 1.0), (1.0, 0.88, 0.70, 0.42, 0.27, 0.22))
+
+
+@settings(max_examples=60, deadline=None)
+@given(
+    rated=st.lists(st.sampled_from([25.0, 35.0, 50.0, 63.0, 100.0]), min_size=1, max_size=8),
+    dielectric=st.sampled_from(["x7r", "x5r"]),
+    capacitance_uf=st.sampled_from([2.2, 4.7, 10.0, 22.0]),
+)
+def test_output_bank_count_matches_an_independent_model(rated, dielectric, capacitance_uf):
+    topology = get_topology("boost")
+    envelope = topology.envelope(SPEC)
+    columns = _columns(rated)
+    columns["dielectric"] = np.array([dielectric] * len(rated), dtype=object)
+    columns["capacitance_f"] = np.full(len(rated), capacitance_uf * 1e-6)
+    screen = capacitor.screen_output(columns, SPEC, envelope, topology, STANDARD, 4)
+    ripple_rule = next(r for r in screen.rules if r.rule == "ripple-voltage")
+    table = X7R if dielectric == "x7r" else X5R
+    d_max = 1 - 6.0 * 0.85 / 24.0  # TI SLVA372 duty at vin_min
+    peak = envelope.value("il_peak_max_a")
+    for i, v_rated in enumerate(rated):
+        c_eff = capacitance_uf * 1e-6 * 0.9 * np.interp(24.0 / v_rated, *table)
+        ripple = [0.8 * d_max / (400e3 * n * c_eff) + 0.004 / n * peak for n in (1, 2, 3, 4)]
+        fits = [n for n, v in zip((1, 2, 3, 4), ripple, strict=True) if v <= 0.12]
+        assert screen.count[i] == (fits[0] if fits else 4)
+        assert (ripple_rule.status[i] == 0) == bool(fits)
