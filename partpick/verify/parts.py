@@ -86,6 +86,9 @@ def parts_from_bom(path: str | Path, db: str | None) -> BomSelection:
         line = lines.get(role)
         if line is None or not line.get("mpn"):
             raise ParameterError(role, "has no part in this BOM", part=str(path))
+        if not isinstance(line["mpn"], str):
+            mpn = line["mpn"]
+            raise ParameterError("mpn", "must be text", role=role, part=str(path), value=mpn)
         part = line.get("part")
         if part is not None and not isinstance(part, dict):
             raise ParameterError("part", "must be a table of fields", role=role, part=str(path))
