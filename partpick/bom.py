@@ -218,7 +218,8 @@ def build_bom(
             break
         efficiency_used = estimated
     lines, picks, recheck = recheck_at_chosen_parts(
-        db, round_spec, lines, picks, envelope, profile,
+        db, _with_diode_heat(db, round_spec, by_role_line(lines, "diode"), envelope),
+        lines, picks, envelope, profile,
         dict(rank=rank, max_parallel=max_parallel, top=max(alternates + 1, 3)),
         lambda result: _choose_line(result, alternates),
     )  # fmt: skip
@@ -267,15 +268,23 @@ def _pick_roles(db, spec: Spec, profile: Profile, rank: str, max_parallel: int, 
     for role in ROLES:
         role_spec = spec
         if role == "switch" and "diode" in picks:
-            line = _choose_line(picks["diode"], 0)
-            if line.choice is not None:
-                fields = chosen_figures(db, (line,))["diode"]
-                envelope = picks["diode"].envelope
-                role_spec = replace(spec, switch_extra_loss_w=switch_heat_from_diode_w(
-                    spec, envelope, fields))  # fmt: skip
+            diode_line = _choose_line(picks["diode"], 0)
+            role_spec = _with_diode_heat(db, spec, diode_line, picks["diode"].envelope)
         picks[role] = pick(db, role_spec, role, profile=profile, rank=rank,
                            max_parallel=max_parallel, top=max(alternates + 1, 3))  # fmt: skip
     return picks
+
+
+def by_role_line(lines: tuple[BomLine, ...], role: str) -> BomLine | None:
+    return next((line for line in lines if line.role == role), None)
+
+
+def _with_diode_heat(db, spec: Spec, diode_line: BomLine | None, envelope: Envelope) -> Spec:
+    """Return ``spec`` carrying the loss the chosen diode dissipates in the switch, in W."""
+    if diode_line is None or diode_line.choice is None:
+        return spec
+    fields = chosen_figures(db, (diode_line,))["diode"]
+    return replace(spec, switch_extra_loss_w=switch_heat_from_diode_w(spec, envelope, fields))
 
 
 def _rounds_settled(rounds: list[LossRound]) -> bool:
