@@ -467,3 +467,11 @@ def test_recheck_falls_back_on_the_spec_drop_without_a_diode_vf():
     # 15 µH without a tolerance takes the profile default 20 % (12 µH); no VF: the spec's 0.7 V
     low, vf, source = chosen_stresses(spec, envelope, {"inductance_h": 15e-6}, {}, 0.2)
     assert (low, vf, source) == (pytest.approx(12e-6), 0.7, "spec")
+
+
+def test_the_report_gives_the_order_quantity_for_the_build(db, standard):
+    bom = build_bom(db, load_spec(SPEC), profile=standard, build_qty=10)
+    text = bom_markdown(bom)
+    assert "| ref | role | qty | order qty |" in text
+    # COUT: 4 per board (module docstring) × 10 boards = 40 parts at 0.20 = 8.00
+    assert "| COUT | output-cap | 4 | 40 |" in text and "| 8.00 |" in text

@@ -68,6 +68,8 @@ def line_notes(line: BomLine, everything: bool = True) -> list[str]:
     notes += list(line.choice.notes)
     if line.status == UNVERIFIED:
         notes.append(f"unverified: missing {', '.join(line.choice.missing)}")
+        if line.requirements:  # no part passed: say what one that does would need
+            notes.append(f"a part would need: {requirements_line(line.requirements)}")
     return notes
 
 
@@ -207,13 +209,12 @@ def price(value: float | None) -> str:
 
 
 def line_header(line: BomLine, build_qty: int = 1) -> list[str]:
-    """Return the text cells of a line; with a build quantity, qty reads "3 (30)"."""
+    """Return the text cells of a line (qty per board; extended price for ``build_qty``)."""
     choice = line.choice
-    qty = str(line.qty) if build_qty <= 1 else f"{line.qty} ({line.order_qty(build_qty)})"
     return [
         line.designator,
         line.role,
-        qty,
+        str(line.qty),
         choice.manufacturer if choice else "",
         choice.mpn if choice else "",
         line_value(line),

@@ -192,10 +192,7 @@ def bom_markdown(bom: Bom, plot_file: str | None = None) -> str:
     out += [
         "## Bill of materials",
         "",
-        markdown_table(
-            LINE_COLUMNS,
-            [line_header(line, bom.build_qty) + [line.status] for line in bom.lines],
-        ),
+        markdown_table(_line_columns(bom), [_line_row(line, bom) for line in bom.lines]),
         "",
     ]
     out += [f"## Derating notes ({markdown_text(bom.profile.name)} profile)", ""]
@@ -209,6 +206,21 @@ def bom_markdown(bom: Bom, plot_file: str | None = None) -> str:
     out += _verification_markdown(bom, plot_file)
     out += ["## Cautions", ""] + [f"- {markdown_text(c.text)}" for c in bom.cautions] + [""]
     return "\n".join(out)
+
+
+def _line_columns(bom: Bom) -> tuple[str, ...]:
+    """Return the report's BOM columns; for more than one board, "order qty" follows "qty"."""
+    if bom.build_qty <= 1:
+        return LINE_COLUMNS
+    at = LINE_COLUMNS.index("qty") + 1
+    return LINE_COLUMNS[:at] + ("order qty",) + LINE_COLUMNS[at:]
+
+
+def _line_row(line, bom: Bom) -> list[str]:
+    cells = line_header(line, bom.build_qty) + [line.status]
+    if bom.build_qty > 1:
+        cells.insert(LINE_COLUMNS.index("qty") + 1, str(line.order_qty(bom.build_qty)))
+    return cells
 
 
 def _verification_markdown(bom: Bom, plot_file: str | None) -> list[str]:
