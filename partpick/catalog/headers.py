@@ -8,28 +8,23 @@ A header that could mean two fields, or one worded close to a known wording but 
 stays unread, with the candidate fields and the map-file line that settles it. A map file
 (TOML; commented examples in ``catalogs/maps/``) names columns, gives units per field and
 sets constant fields.
-
-Map file::
-
-    kind = "inductor"       # optional; --kind wins
-    encoding = "cp1252"     # optional; otherwise sniffed
-    delimiter = ";"         # optional; otherwise sniffed
-    decimal = ","           # optional; "," lets 4,7 mean 4.7
-    skip_rows = 0           # optional; lines above the header row
-    [columns]               # header text -> field name, or "ignore"
-    [units]                 # field -> unit of bare numbers in its column
-    [constants]             # field -> value on every row lacking one
+The map file itself is read by :mod:`partpick.catalog.mapfile`.
 """
 
 from __future__ import annotations
 
-import codecs
 import difflib
 from collections.abc import Sequence
-from dataclasses import dataclass, field
+from dataclasses import dataclass
 from functools import lru_cache
-from pathlib import Path
 
+from partpick.catalog.mapfile import (
+    IGNORE,
+    MapFile,
+    check_map_for_kind,
+    load_map,
+    unit_scale,
+)
 from partpick.catalog.wording import (
     Segment,
     Wording,
@@ -49,36 +44,9 @@ from partpick.fields import (
     fields_of,
     fold_text,
 )
-from partpick.textfiles import TextFileError, read_toml
-from partpick.units import dimension_name, unit_multiplier
+from partpick.units import unit_multiplier
 
-IGNORE = "ignore"
-_MAP_KEYS = (
-    "kind",
-    "encoding",
-    "delimiter",
-    "decimal",
-    "skip_rows",
-    "columns",
-    "units",
-    "constants",
-)
-_DELIMITERS = {",": ",", ";": ";", "\t": "\t", "tab": "\t", "|": "|"}
-
-
-@dataclass(frozen=True)
-class MapFile:
-    """A parsed map file: how to read one vendor's CSV layout."""
-
-    path: str
-    kind: str | None = None
-    encoding: str | None = None
-    delimiter: str | None = None
-    decimal: str = "."
-    skip_rows: int = 0
-    columns: dict[str, str] = field(default_factory=dict)
-    units: dict[str, str] = field(default_factory=dict)
-    constants: dict[str, object] = field(default_factory=dict)
+__all__ = ["IGNORE", "MapFile", "check_map_for_kind", "load_map", "match_headers"]
 
 
 @dataclass(frozen=True)
@@ -102,111 +70,6 @@ class HeaderPlan:
     unrecognised: tuple[str, ...]
     ignored: tuple[str, ...]
     unread: tuple[Unread, ...] = ()  # the unrecognised headers, with hints
-
-
-def load_map(path: str | Path) -> MapFile:
-    """Read and check a map file; raises :class:`MapFileError` naming the bad key."""
-    name = str(path)
-    try:
-        data = read_toml(path)
-    except TextFileError as exc:
-        raise MapFileError(name, exc.reason) from None
-    for key in data:
-        if key not in _MAP_KEYS:
-            raise MapFileError(name, f"unknown key; expected one of {', '.join(_MAP_KEYS)}", key)
-    return MapFile(
-        path=name,
-        kind=_map_kind(name, data.get("kind")),
-        encoding=_map_encoding(name, data.get("encoding")),
-        delimiter=_map_delimiter(name, data.get("delimiter")),
-        decimal=_map_choice(name, data, "decimal", (".", ","), "."),
-        skip_rows=_map_skip_rows(name, data.get("skip_rows", 0)),
-        columns=_map_table(name, data, "columns", str),
-        units=_map_table(name, data, "units", str),
-        constants=_map_table(name, data, "constants", (str, int, float, bool)),
-    )
-
-
-def _map_kind(name: str, kind: object) -> str | None:
-    if kind is not None and kind not in KINDS:
-        raise MapFileError(
-            name, f"unknown kind {kind!r}; expected one of {', '.join(KINDS)}", "kind"
-        )
-    return kind  # type: ignore[return-value]
-
-
-def _map_encoding(name: str, encoding: object) -> str | None:
-    if encoding is None:
-        return None
-    try:
-        codecs.lookup(str(encoding))
-    except LookupError:
-        raise MapFileError(name, f"unknown encoding {encoding!r}", "encoding") from None
-    return str(encoding)
-
-
-def _map_delimiter(name: str, delimiter: object) -> str | None:
-    if delimiter is None:
-        return None
-    if delimiter not in _DELIMITERS:
-        raise MapFileError(name, 'delimiter must be ",", ";", "\\t" or "|"', "delimiter")
-    return _DELIMITERS[delimiter]  # type: ignore[index]
-
-
-def _map_choice(name: str, data: dict, key: str, choices: tuple[str, ...], default: str) -> str:
-    value = data.get(key, default)
-    if value not in choices:
-        raise MapFileError(name, f"must be one of {', '.join(map(repr, choices))}", key)
-    return value
-
-
-def _map_skip_rows(name: str, value: object) -> int:
-    if not isinstance(value, int) or isinstance(value, bool) or value < 0:
-        raise MapFileError(name, "must be a whole number of lines, 0 or more", "skip_rows")
-    return value
-
-
-def _map_table(name: str, data: dict, key: str, types: type | tuple[type, ...]) -> dict:
-    table = data.get(key, {})
-    if not isinstance(table, dict):
-        raise MapFileError(name, "must be a table, such as [" + key + "]", key)
-    for inner, value in table.items():
-        if not isinstance(value, types) or isinstance(value, dict | list):
-            raise MapFileError(name, "must be a plain value (text or number)", f"{key}.{inner}")
-    return dict(table)
-
-
-def check_map_for_kind(map_file: MapFile, kind: str) -> None:
-    """Check that every field the map names exists for ``kind`` and every unit fits its field."""
-    known = {f.name: f for f in fields_of(kind)}
-    kind = ("an " if kind[0] in "aeiou" else "a ") + kind
-    for header, target in map_file.columns.items():
-        if target != IGNORE and target not in known:
-            raise MapFileError(
-                map_file.path, f"{target!r} is not a field of {kind}", f"columns.{header}"
-            )
-    for name, unit_text in map_file.units.items():
-        if name not in known:
-            raise MapFileError(map_file.path, f"{name!r} is not a field of {kind}", f"units.{name}")
-        _unit_scale(
-            known[name],
-            unit_text,
-            lambda reason, key=f"units.{name}": MapFileError(map_file.path, reason, key),
-        )
-    for name in map_file.constants:
-        if name not in known:
-            raise MapFileError(
-                map_file.path, f"{name!r} is not a field of {kind}", f"constants.{name}"
-            )
-
-
-def _unit_scale(f: Field, unit_text: str, error) -> float:
-    if f.type not in ("float", "int"):
-        raise error(f"{f.name} takes no unit")
-    try:
-        return unit_multiplier(unit_text, f.unit)
-    except UnitError:
-        raise error(f"{unit_text!r} is not a unit of {dimension_name(f.unit)}") from None
 
 
 @dataclass(frozen=True)
@@ -302,6 +165,8 @@ def _check_mapped_columns_exist(map_file: MapFile, headers: Sequence[str], file:
     present = {h.strip() for h in headers} | {fold_text(h) for h in headers}
     for header, target in map_file.columns.items():
         if target == IGNORE or header.strip() in present or fold_text(header) in present:
+            continue
+        if header in map_file.shared_columns:  # a multi-kind map's shared table
             continue
         listed = ", ".join(repr(h) for h in headers[:8]) + (" …" if len(headers) > 8 else "")
         raise MapFileError(
@@ -448,7 +313,7 @@ def _column_match(
     def error(reason: str) -> CatalogFormatError:
         return CatalogFormatError(file, f"{reason} (header read as {f.name})", 1, header)
 
-    scale = _unit_scale(f, unit_text, error) if unit_text is not None else 1.0
+    scale = unit_scale(f, unit_text, error) if unit_text is not None else 1.0
     return ColumnMatch(header, position, f.name, unit_text, scale, via, condition)
 
 

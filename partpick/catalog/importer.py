@@ -33,6 +33,7 @@ from typing import TYPE_CHECKING
 from partpick.catalog import columns, identity, merge, pg_merge, plausible, postgres, sqlite_light
 from partpick.catalog.headers import ColumnMatch, MapFile, Unread, check_map_for_kind, load_map
 from partpick.catalog.location import generation_key, resolve_db_url, snapshot_file, sqlite_file
+from partpick.catalog.mapfile import map_for_kind
 from partpick.catalog.reading import (
     WHOLE_ROW,
     Chunk,
@@ -130,6 +131,7 @@ def import_catalog(
     mapping = load_map(map_file) if isinstance(map_file, str | Path) else map_file
     kind = _resolve_kind(kind, mapping, files)
     if mapping is not None:
+        mapping = map_for_kind(mapping, kind)  # one file may hold a section per kind
         check_map_for_kind(mapping, kind)
     with spooled_inputs(files) as readable:
         prepared = [prepare_file(path, kind, mapping) for path in readable]

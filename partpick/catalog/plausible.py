@@ -28,8 +28,10 @@ def screen_chunk(
         outside = outside_field_range(name, column)
         for row in np.flatnonzero(outside & ~bad):
             unusual = unusual_field_value(name, float(column[row]), units[name])
-            advice = "accepted (--allow-unusual)" if allow_unusual else (
-                "check the unit, or import with --allow-unusual"
+            advice = (
+                "accepted (--allow-unusual)"
+                if allow_unusual
+                else ("check the unit, or import with --allow-unusual")
             )
             notes.append(Reject(int(chunk.lines[row]), headers.get(name, name),
                                 f"{column[row]:g}", f"{unusual.sentence()}; {advice}"))  # fmt: skip
