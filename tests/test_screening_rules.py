@@ -348,12 +348,17 @@ def test_forward_current(if_avg_a, status):
         ("standard", 20e3, PASS),  # at the limit
         ("schottky", 400e3, SKIPPED),  # the rule is only for standard recovery parts
         ("fast", 400e3, SKIPPED),
-        (None, 400e3, SKIPPED),
+        # no type: it might be a standard rectifier, so above the limit the part is
+        # unverified (a missing figure a rule needs); at or below it any type passes
+        (None, 400e3, UNVERIFIED),
+        (None, 20e3, PASS),
     ],
 )
 def test_recovery(diode_type, fsw_hz, status):
     rule = diode.recovery_rule(np.array([diode_type], dtype=object), fsw_hz, 20e3)
     assert rule.status[0] == status
+    if status == UNVERIFIED:
+        assert rule.check_at(0).missing == ("diode_type",)
 
 
 class _Spec:

@@ -10,7 +10,9 @@ The rules (profile ``standard`` figures in brackets):
   P = VF·Iout + Qrr·Vout·fsw: conduction as a constant drop (Erickson & Maksimovic ch. 3) plus
   the recovered-charge loss (same book, ch. 4), via :mod:`partpick.losses`.
 * ``recovery``: a ``standard`` recovery rectifier fails above 20 kHz (common practice, no
-  published source); other types are not subject to it.
+  published source); other types are not subject to it. A diode without a type is
+  unverified above that frequency (missing ``diode_type``), like any missing figure a rule
+  needs.
 * ``lifecycle``.
 
 A Schottky or SiC Schottky diode with no Qrr is taken as Qrr = 0 (majority-carrier device,
@@ -60,7 +62,7 @@ RULES: tuple[RuleNeeds, ...] = (
     RuleNeeds("reverse-voltage", ("vrrm_v",)),
     RuleNeeds("forward-current", ("if_avg_a",)),
     RuleNeeds("thermal", ("theta_ja_degc_w", "tj_max_degc", "vf_v", "qrr_c")),
-    RuleNeeds("recovery", ("diode_type",), optional=True),
+    RuleNeeds("recovery", ("diode_type",)),  # not needed at or below the recovery limit
     RuleNeeds("lifecycle", ("lifecycle",), optional=True),
 )
 USES: tuple[str, ...] = ("vd_reverse_max_v", "id_avg_a", "id_peak_max_a")
@@ -104,10 +106,18 @@ def forward_current_rule(id_avg_a: float, if_avg_a, use: float) -> RuleResult:
 
 
 def recovery_rule(diode_type: np.ndarray, fsw_hz: float, max_hz: float) -> RuleResult:
-    """Return the rule fsw ≤ max_hz, applied to ``standard`` recovery parts only."""
+    """Return the rule fsw ≤ max_hz, applied to ``standard`` recovery parts only.
+
+    A part without a type might be a standard rectifier: above ``max_hz`` it is unverified
+    (missing ``diode_type``); at or below it the rule holds for any type.
+    """
     n = diode_type.shape[0]
-    applies = np.asarray(diode_type == "standard", dtype=bool)
-    return limit_rule("recovery", "Hz", fsw_hz, max_hz, n, applies=applies)
+    untyped = np.asarray(diode_type == None, dtype=bool)  # noqa: E711 - elementwise on objects
+    applies = np.asarray(diode_type == "standard", dtype=bool) | untyped
+    unknown = untyped & (fsw_hz > max_hz)
+    return limit_rule(
+        "recovery", "Hz", fsw_hz, max_hz, n, missing=(("diode_type", unknown),), applies=applies
+    )
 
 
 def thermal_rules(columns, spec, profile) -> tuple[RuleResult, np.ndarray, list]:
@@ -167,7 +177,10 @@ def screen(
     )  # fmt: skip
     untyped = np.asarray(columns["diode_type"] == None, dtype=bool)  # noqa: E711 - object array
     notes += [
-        ("diode type not given; recovery class not checked", untyped),
+        (
+            "diode type not given; any type is fast enough at this frequency",
+            untyped & (spec.fsw_hz <= profile.value("diode.standard_recovery_max_hz")),
+        ),
         *lifecycle_notes(columns["lifecycle"]),
     ]
     count = np.ones(untyped.shape[0], dtype=np.int64)
