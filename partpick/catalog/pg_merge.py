@@ -11,7 +11,6 @@ the catalog is truncated.
 
 from __future__ import annotations
 
-import math
 from typing import TYPE_CHECKING
 
 import numpy as np
@@ -32,9 +31,14 @@ def _staging(kind: str) -> str:
     return f"staging_{kind}"
 
 
+def _staged_columns(kind: str) -> tuple[str, ...]:
+    """Return the staging table's columns: the row's id, then :func:`insert_columns`."""
+    return ("id",) + insert_columns(kind)
+
+
 def start_staging(conn: sa.Connection, kind: str) -> None:
     """Create (or empty) the temporary staging table of ``kind``; it is dropped at commit."""
-    names = ", ".join(f'"{c}"' for c in insert_columns(kind))
+    names = ", ".join(f'"{c}"' for c in _staged_columns(kind))
     conn.exec_driver_sql(
         f"CREATE TEMPORARY TABLE IF NOT EXISTS {_staging(kind)} ON COMMIT DROP AS "
         f"SELECT {names} FROM {table_name(kind)} WITH NO DATA"
@@ -47,8 +51,10 @@ _PG_TYPES = {"float": "float8", "int": "int8", "bool": "bool"}
 
 def _column_types(kind: str) -> list[str]:
     types = []
-    for name in insert_columns(kind):
-        if name in ("source_line",):
+    for name in _staged_columns(kind):
+        if name == "id":
+            types.append("int4")
+        elif name == "source_line":
             types.append("int4")
         elif name in ("manufacturer", "mpn", "extra"):
             types.append("text")
@@ -72,18 +78,34 @@ def _copy_column(kind: str, name: str, column: np.ndarray | None, count: int) ->
             boxed[missing] = None
             return boxed.tolist()
         return column.tolist()
-    return [None if v is None or (isinstance(v, float) and math.isnan(v)) else v
-            for v in column.tolist()]  # fmt: skip
+    return column.tolist()  # text, enum and bool columns hold None where missing
 
 
-def _copy_columns(kind: str, values: dict[str, np.ndarray], lines: np.ndarray) -> list[list]:
-    """Return the staging columns in :func:`insert_columns` order, as COPY values."""
+def _copy_columns(
+    kind: str, values: dict[str, np.ndarray], lines: np.ndarray, first_id: int
+) -> list[list]:
+    """Return the staging columns in :func:`_staged_columns` order, as COPY values."""
     count = len(lines)
-    return [
+    ids = list(range(first_id, first_id + count))
+    return [ids] + [
         lines.tolist() if name == "source_line"
         else _copy_column(kind, name, values.get(name), count)
         for name in insert_columns(kind)
     ]  # fmt: skip
+
+
+def _reserve_ids(conn: sa.Connection, kind: str, count: int) -> int:
+    """Take ``count`` consecutive ids from the table's sequence; return the first.
+
+    The rows keep the file's order in their ids without a sort of the staging table (a third
+    of the merge's time, measured on 100,000 rows). Only importers of the kind, which hold
+    its lock, take ids from this sequence, so the range is theirs; unused ids are gaps.
+    """
+    sequence = f"pg_get_serial_sequence('{table_name(kind)}', 'id')"
+    first = conn.exec_driver_sql(f"SELECT nextval({sequence})").scalar_one()
+    if count > 1:
+        conn.exec_driver_sql(f"SELECT setval({sequence}, {int(first) + count - 1})")
+    return int(first)
 
 
 def copy_rows(
@@ -98,10 +120,10 @@ def copy_rows(
 
     url = conn.engine.url.render_as_string()
     try:
-        columns = _copy_columns(kind, values, lines)
+        columns = _copy_columns(kind, values, lines, _reserve_ids(conn, kind, len(lines)))
     except ValueError as exc:
         raise DatabaseError(url, f"cannot be written ({exc})") from None
-    quoted = ", ".join(f'"{c}"' for c in insert_columns(kind))
+    quoted = ", ".join(f'"{c}"' for c in _staged_columns(kind))
     cursor = conn.connection.driver_connection.cursor()
     try:
         with cursor.copy(f"COPY {_staging(kind)} ({quoted}) FROM STDIN (FORMAT BINARY)") as copy:
@@ -133,13 +155,14 @@ def upsert_staged(conn: sa.Connection, kind: str, batch_id: int) -> int:
 
     Into an empty table (the caller holds the kind's lock, so it stays empty) a plain
     INSERT does: with nothing to conflict with, the speculative insertion of ON CONFLICT
-    only doubles the index work (measured, 100,000 rows). Rows keep the file's order.
+    only doubles the index work (measured, 100,000 rows). New rows take the ids reserved in
+    file order; a stored part keeps its id.
     """
     table = table_name(kind)
-    quoted = ", ".join(f'"{c}"' for c in insert_columns(kind))
+    quoted = ", ".join(f'"{c}"' for c in _staged_columns(kind))
     insert = (
         f'INSERT INTO {table} ("kind", "batch_id", {quoted}) '
-        f"SELECT '{kind}', {int(batch_id)}, {quoted} FROM {_staging(kind)} ORDER BY source_line"
+        f"SELECT '{kind}', {int(batch_id)}, {quoted} FROM {_staging(kind)}"
     )
     if conn.exec_driver_sql(f"SELECT EXISTS (SELECT 1 FROM {table})").scalar():
         insert += _on_conflict(kind)
