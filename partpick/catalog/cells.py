@@ -213,8 +213,11 @@ def _texts(cells) -> ColumnValues:
     Python's own ``str.strip`` mapped over the cells: pandas' ``.str.strip`` costs several
     times as much per cell. Cells that are not text (None, or NaN) are missing.
     """
-    # a cell that is not text (None, NaN) becomes "", which is a missing marker
-    values = _object_array([cell.strip() if isinstance(cell, str) else "" for cell in cells])
+    try:  # both readers give text in every cell: strip them all inside C
+        stripped = list(map(str.strip, cells))
+    except TypeError:  # a cell that is not text (None, NaN) becomes "", a missing marker
+        stripped = [cell.strip() if isinstance(cell, str) else "" for cell in cells]
+    values = _object_array(stripped)
     missing = np.fromiter(
         map(_MISSING_SPELLINGS.__contains__, values), dtype=bool, count=len(values)
     )
