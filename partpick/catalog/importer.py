@@ -30,7 +30,16 @@ from dataclasses import dataclass, field
 from pathlib import Path
 from typing import TYPE_CHECKING
 
-from partpick.catalog import columns, identity, merge, pg_merge, plausible, postgres, sqlite_light
+from partpick.catalog import (
+    columns,
+    identity,
+    merge,
+    pg_merge,
+    plausible,
+    postgres,
+    snapshot_patch,
+    sqlite_light,
+)
 from partpick.catalog.headers import ColumnMatch, MapFile, Unread, check_map_for_kind, load_map
 from partpick.catalog.location import generation_key, resolve_db_url, snapshot_file, sqlite_file
 from partpick.catalog.mapfile import map_for_kind
@@ -153,7 +162,7 @@ def _import_prepared(db, kind, prepared, strict, progress, chunk_rows, before_co
             stamp = _stamp_after_bump(conn, kind)
             if before_commit is not None:
                 before_commit(reports)
-        _refresh_snapshot(db, kind, builder, stamp)
+        _refresh_snapshot(db, kind, builder, stamp, [r.batch_id for r in reports])
     except _write_errors() as exc:  # locked, disk full, read-only; on a server: no grant
         reason = getattr(exc, "orig", None) or exc
         raise DatabaseError(resolve_db_url(db), f"cannot be written ({reason})") from None
@@ -510,18 +519,32 @@ def _start_batch(conn: sa.Connection, item: PreparedFile, imported_at: str) -> i
 
 
 def _refresh_snapshot(
-    db: str | None, kind: str, builder: SnapshotBuilder | None, stamp: tuple[str, ...]
+    db: str | None,
+    kind: str,
+    builder: SnapshotBuilder | None,
+    stamp: tuple[str, ...],
+    batch_ids: list[int],
 ) -> None:
     """Write the columnar snapshot of ``kind`` after the commit.
 
-    From the spilled columns when the import filled an empty table, else from the table.
-    On a write failure the snapshot is left stale; read_columns notices and rebuilds it.
+    From the spilled columns when the import filled an empty table; else the previous
+    snapshot patched with the rows this import wrote; else (no usable previous snapshot)
+    from the whole table. On a write failure the snapshot is left stale; read_columns
+    notices and rebuilds it.
     """
     url = resolve_db_url(db)
-    if sqlite_file(url) is None:
+    path = sqlite_file(url)
+    if path is None:
         return  # in-memory and server catalogs are read through SQL
     with contextlib.suppress(OSError):
         if builder is not None and builder.valid:
             builder.finish(stamp)
-        else:
+        elif not _patched(path, kind, batch_ids):
             columns.write_snapshot(url, kind)
+
+
+def _patched(path: Path, kind: str, batch_ids: list[int]) -> bool:
+    try:
+        return snapshot_patch.patch_snapshot(path, kind, batch_ids)
+    except sqlite3.Error:
+        return False
