@@ -173,3 +173,18 @@ def test_parts_table_on_an_empty_catalog(runner, catalog_db):
     result = runner.invoke(app, ["parts", "--kind", "diode", "--db", catalog_db])
     assert result.exit_code == 0, result.output
     assert "0 diode part(s)" in result.output
+
+
+def test_parts_csv_and_json_show_values_as_written(runner, catalog_db, write_csv):
+    # IEEE 754-2019 §5.12.2: "1e-05" is the float nearest 10 µH; 4.7 µH and 33 mΩ likewise.
+    # A float product would print 9.999999999999999e-06; the export must print what was written.
+    text = "MPN,Inductance,DCR\nPP-X1,10 uH,33 mOhm\nPP-X2,4.7 uH,0.33 Ohm\n"
+    import_catalog(catalog_db, [write_csv(text)], "inductor")
+    args = ["parts", "--kind", "inductor", "--db", catalog_db, "--format"]
+    rows = {
+        r["mpn"]: r for r in csv.DictReader(io.StringIO(runner.invoke(app, [*args, "csv"]).output))
+    }
+    assert (rows["PP-X1"]["inductance_h"], rows["PP-X1"]["dcr_ohm"]) == ("1e-05", "0.033")
+    assert rows["PP-X2"]["inductance_h"] == "4.7e-06"
+    raw = runner.invoke(app, [*args, "json"]).output
+    assert '"inductance_h": 1e-05' in raw and "9999999" not in raw
