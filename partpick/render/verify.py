@@ -164,14 +164,14 @@ def not_included_lines(points: tuple[PointResult, ...]) -> list[str]:
 
 
 RULE_TITLES = {
-    "output-voltage": "output peak vs capacitor voltage (derated)",
-    "hazard-voltage": "output peak above the 60 V DC hazard level",
-    "drain-voltage": "switch node peak vs VDS (derated)",
-    "reverse-voltage": "diode reverse voltage vs VRRM (derated)",
-    "saturation": "inductor peak at L·(1 − tol) vs Isat (derated)",
-    "switch-thermal": "switch junction at the hottest ambient",
-    "diode-thermal": "diode junction at the hottest ambient",
-    "thermal-runaway": "diode leakage runs away: no steady junction temperature",
+    "output-voltage": "output peak vs cap voltage",
+    "hazard-voltage": "output above 60 V hazard",
+    "drain-voltage": "switch node peak vs VDS",
+    "reverse-voltage": "diode reverse vs VRRM",
+    "saturation": "peak at L·(1 − tol) vs Isat",
+    "switch-thermal": "switch Tj at ambient max",
+    "diode-thermal": "diode Tj at ambient max",
+    "thermal-runaway": "diode leakage runs away",
 }
 
 
@@ -181,22 +181,32 @@ def _figure_text(value: float, unit: str) -> str:
     return format_eng(value, unit)
 
 
+def _rating_text(violation) -> str:
+    """Return the part's rating the limit derives from (Tj max "150 °C", "50 V"), or "—"."""
+    if violation.rating is None or violation.rule == "hazard-voltage":
+        return "—"
+    if violation.unit == "degC":
+        return f"{violation.rating:.0f} °C"
+    return format_eng(violation.rating, violation.unit)
+
+
 def violations_table(result: VerifyResult) -> Table:
     """Return one row per rating exceeded: point, part, check, value and limit."""
     table = Table(
         box=box.SIMPLE_HEAD, header_style=STYLE_HEADING, pad_edge=False, collapse_padding=True
     )
-    for title in ("Vin", "Iout", "part", "check", "value", "limit"):
+    for title in ("Vin", "Iout", "part", "check", "value", "limit", "rating"):
         justify = "left" if title in ("part", "check") else "right"
         table.add_column(title, justify=justify, no_wrap=title != "check")
     for v in result.violations:
         table.add_row(
             format_eng(v.vin_v, "V"),
             format_eng(v.iout_a, "A"),
-            f"{v.role} {v.part}",
+            v.part,
             RULE_TITLES.get(v.rule, v.rule),
             _figure_text(v.value, v.unit),
             _figure_text(v.limit, v.unit),
+            _rating_text(v),
             style=STYLE_FAIL,
         )
     return table
@@ -209,6 +219,10 @@ def render_ratings(result: VerifyResult, console: Console) -> None:
     if result.violations:
         console.print(Text(f"Ratings exceeded ({len(result.violations)})", style=STYLE_FAIL))
         console.print(violations_table(result))
+        console.print(
+            Text("limits are the profile's derated figures (use × rating, Tj max − margin)",
+                 style=STYLE_MUTED)
+        )  # fmt: skip
     else:
         console.print(Text("Ratings: no violation at any point.", style=STYLE_MUTED))
     for gap in result.unchecked:
