@@ -340,3 +340,15 @@ def test_a_whole_number_beyond_64_bits_is_one_clear_error(pg_server, write_csv, 
     assert result.exit_code == 2, result.output
     assert "stock holds a whole number beyond 64 bits" in result.output
     assert count_parts(db)["inductor"] == 0
+
+
+def test_reading_an_empty_database_says_import_first_and_creates_nothing(pg_server, runner):
+    db = pg_server.url_of(pg_server.new_database().rsplit("/", 1)[1], "partpick", "s3cret-Pw")
+    for args in (["parts", "--kind", "inductor"], ["pick", str(SCENARIOS[0]), "--role", "diode"]):
+        result = runner.invoke(app, [*args, "--db", db])
+        assert result.exit_code == 2, result.output
+        assert "no catalog at" in result.output and "import first" in result.output
+        assert "s3cret-Pw" not in result.output
+    with pg_server.admin_of(db.rsplit("/", 1)[1]) as conn:
+        tables = conn.execute("SELECT count(*) FROM pg_tables WHERE schemaname = 'public'")
+        assert tables.fetchone() == (0,)

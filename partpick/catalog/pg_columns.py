@@ -27,7 +27,7 @@ import numpy as np
 from partpick.catalog import postgres
 from partpick.catalog.location import generation_key
 from partpick.catalog.snapshot import META, SNAPSHOT_VERSION, encode_rows, save_members
-from partpick.errors import DatabaseError
+from partpick.errors import DatabaseError, NoCatalogError, mask_url
 from partpick.fields import Field, fields_of
 
 
@@ -45,22 +45,38 @@ def read_arrays(url: str, kind: str, wanted: list[Field], load_snapshot) -> dict
     """Return the encoded snapshot arrays of ``kind`` (``load_snapshot`` checks a cached file)."""
     import psycopg
 
-    file = cache_folder(url) / f"{kind}.npz"
     with _connect(url) as conn:
+        file = cache_folder(url) / f"{kind}.npz"
         stamp = _stamp(conn, url, kind)
-        if stamp is not None:
-            arrays = load_snapshot(file, stamp, wanted)
-            if arrays is not None:
-                return arrays
-            try:
-                return _rebuild(conn, kind, file)
-            except (psycopg.errors.UndefinedTable, psycopg.errors.UndefinedColumn):
-                pass  # a field added since the tables were made: widen them first
-            except psycopg.Error as exc:
-                raise DatabaseError(url, postgres.connection_reason(exc)) from None
-    _prepare(url)  # create, upgrade or widen the tables, as any other command does
+        if stamp is None:
+            raise _no_catalog(url)
+        arrays = load_snapshot(file, stamp, wanted)
+        if arrays is not None:
+            return arrays
+        try:
+            return _rebuild(conn, kind, file)
+        except (psycopg.errors.UndefinedTable, psycopg.errors.UndefinedColumn):
+            pass  # a field added since the tables were made: widen them first
+        except psycopg.Error as exc:
+            raise DatabaseError(url, postgres.connection_reason(exc)) from None
+    _prepare(url)  # upgrade or widen the tables, as any other command does
     with _connect(url) as conn:
         return _rebuild(conn, kind, file)
+
+
+def require_catalog(url: str) -> None:
+    """Raise NoCatalogError unless the database at ``url`` holds a partpick catalog.
+
+    Only ``import`` creates one, as with SQLite files, so a reading command pointed at the
+    wrong database leaves it untouched.
+    """
+    with _connect(url) as conn:
+        if _stamp(conn, url, "inductor") is None:
+            raise _no_catalog(url)
+
+
+def _no_catalog(url: str) -> NoCatalogError:
+    return NoCatalogError(mask_url(url), "the database holds no partpick catalog")
 
 
 def _connect(url: str):
@@ -74,6 +90,8 @@ def _connect(url: str):
         )
     except psycopg.Error as exc:
         raise DatabaseError(url, postgres.connection_reason(exc)) from None
+    except ValueError as exc:  # a URL that cannot even be split into its parts
+        raise DatabaseError(url, f"not a usable database URL ({exc})") from None
 
 
 def _stamp(conn, url: str, kind: str) -> tuple[str, str] | None:

@@ -14,6 +14,8 @@ import sqlalchemy as sa
 
 from partpick.catalog.integrity import CatalogFile, can_write, connect_read_only, inspect_catalog
 from partpick.catalog.location import resolve_db_url, sqlite_file
+from partpick.catalog.pg_columns import require_catalog
+from partpick.catalog.postgres import is_postgres
 from partpick.catalog.schema import metadata
 from partpick.catalog.store import open_engine, upgrade_schema
 from partpick.errors import DatabaseError
@@ -26,6 +28,8 @@ def open_reader(db: str | None) -> sa.Engine:
     url = resolve_db_url(db)
     path = sqlite_file(url)
     if path is None:
+        if is_postgres(url):
+            require_catalog(url)  # as for a file: only import creates a catalog
         return open_engine(db)  # in-memory and server catalogs: the store's own checks
     found = inspect_catalog(url, path)
     lacking = missing_columns(found)
