@@ -121,3 +121,29 @@ def test_kill_at_five_points_of_a_big_import(big_catalog, tmp_path):
         assert "Traceback" not in pick.stderr
         columns = db.with_name(db.name + ".columns")
         assert not list(columns.glob(".inductor-build-*")), name
+
+
+@pytest.mark.parametrize("point", ["rows spilled", "committed"])
+def test_ctrl_c_says_whether_the_import_was_committed(big_catalog, tmp_path, point):
+    db = tmp_path / "catalog.db"
+    event = dict(kill_points(db))[point]
+    process = subprocess.Popen(
+        [sys.executable, "-c", ENTRY, "import", str(big_catalog), "--kind", "inductor",
+         "--db", str(db)], stdout=subprocess.DEVNULL, stderr=subprocess.PIPE, text=True,
+    )  # fmt: skip
+    while process.poll() is None and not event():
+        time.sleep(0.005)
+    if process.poll() is None:
+        process.send_signal(signal.SIGINT)
+    _, stderr = process.communicate(timeout=120)
+    assert "Traceback" not in stderr
+    count = count_and_check(db)
+    if process.returncode == 130:
+        if count == ROWS:
+            assert "after the import was committed" in stderr
+        else:
+            assert count == 0 and "the catalog was not changed" in stderr
+    else:  # the import finished before the signal landed
+        assert process.returncode == 0 and count == ROWS
+    if point == "rows spilled":
+        assert process.returncode == 130 and count == 0
