@@ -84,7 +84,10 @@ MaxParallelOption = Annotated[
     ),
 ]
 BriefOption = Annotated[
-    bool, typer.Option("--brief", help="Leave out the operating point and the policy.")
+    bool,
+    typer.Option(
+        "--brief", help="Shortest view: no operating point, policy or alternates."
+    ),
 ]
 VerboseOption = Annotated[
     bool,
