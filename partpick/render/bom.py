@@ -130,7 +130,7 @@ def efficiency_sentence(bom: Bom) -> str:
     rounds = len(bom.rounds)
     return (
         f"{used}; the chosen parts' losses give an estimated {efficiency_text(bom)} "
-        f"({rounds} round{'s' if rounds > 1 else ''})."
+        f"after {rounds} round{'s' if rounds > 1 else ''}."
     )
 
 
