@@ -134,15 +134,25 @@ class Wording:
         return Segment(words, "".join(s.symbol for s in self.segments), units)
 
 
+_RMS_TAIL_RE = re.compile(r"\s*(?:rms|eff|peak|pk|p-p|pp)\.?$", re.IGNORECASE)
+
+
+def _unit_text(text: str) -> str:
+    """Return ``text`` without a waveform word after its unit ("mA rms", "Arms" are mA, A)."""
+    text = text.strip()
+    bare = _RMS_TAIL_RE.sub("", text)
+    return bare if bare and bare != text and unit_dimensions(bare.strip()) else text
+
+
 def is_unit(text: str) -> bool:
     """Return True where ``text`` is a unit of some dimension ("mΩ", "uH", "°C/W", "UH")."""
-    text = text.strip()
+    text = _unit_text(text)
     return bool(text) and bool(unit_dimensions(text) or unit_dimensions(text.lower()))
 
 
 def unit_case(text: str) -> str:
     """Return ``text`` as a unit that parses: as written, else in lower case ("UH" is µH)."""
-    text = text.strip()
+    text = _unit_text(text)
     return text if unit_dimensions(text) else text.lower()
 
 
@@ -201,6 +211,9 @@ def _group_text(before, inner, glued, units, conditions, flags) -> str:
     if re.search(r"[0-9=@]", inner) or inner.lower().startswith(("at ", "when ")):
         conditions.append(inner)
         return before + " "
+    if "/" in inner and not glued:  # a list of the values: "(Shielded/Unshielded)", "(N/P)"
+        conditions.append(inner)
+        return before + " "
     words = _TOKEN_RE.findall(normalise_text(inner).lower())
     if words and all(w in QUALIFIERS or w in MINIMUM_WORDS for w in words):
         flags["minimum"] |= any(w in MINIMUM_WORDS for w in words)
@@ -217,9 +230,17 @@ def _segment(piece: str, flags: dict) -> Segment:
     """Return the words, symbol and loose unit words of one comma-free piece of a header."""
     unit_words = []
     kept = []
+    after_number = False
     for chunk in piece.split():
-        if is_unit(chunk) and not chunk[0].isdigit():
+        if chunk[0].isdigit():  # a quantity written in the header ("ESR 100kHz 20°C")
+            after_number = True
+            continue
+        if is_unit(chunk):
+            if after_number:  # the unit of that quantity ("8.3 ms")
+                after_number = False
+                continue
             unit_words.append(unit_case(chunk))
+        after_number = False
         kept.append(chunk)
     raw = []
     for token in _TOKEN_RE.findall(normalise_text(" ".join(kept)).lower()):
