@@ -818,6 +818,7 @@ KIND_FIELDS: dict[str, tuple[Field, ...]] = {
                 "IRAC",
                 "I_RAC",
                 "Ripple Current Irms",
+                "Ripple I_rms",
                 "Ripple Current Rating",
                 "Ripple I",
             ),
@@ -983,6 +984,7 @@ KIND_FIELDS: dict[str, tuple[Field, ...]] = {
                 "Average Output Current",
                 "Mean Forward Current",
                 "Forward Current IF(AV)",
+                "IF Average",
             ),
         ),
         Field(

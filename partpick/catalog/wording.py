@@ -81,6 +81,7 @@ ABBREVIATIONS: dict[str, str] = {
     **dict.fromkeys(("lifetime",), "life"),
     **dict.fromkeys(("endur",), "endurance"),
     **dict.fromkeys(("perm",), "permanent"),
+    **dict.fromkeys(("tot",), "total"),
     **dict.fromkeys(("dissip",), "dissipation"),
     **dict.fromkeys(("manufacturers",), "manufacturer"),
     **dict.fromkeys(("parts",), "part"),
@@ -199,7 +200,8 @@ def _take_groups(text: str, units: list, conditions: list, flags: dict) -> str:
         if match is None:
             return re.sub(r"[\(\)\[\]\{\}]", " ", text)
         before, inner = match.group(1), match.group(2).strip()
-        glued = match.group(0)[len(before) : len(before) + 1] in "([{"  # no space between
+        # glued: a symbol and its group with no space between ("Rds(on)")
+        glued = bool(before) and match.group(0)[len(before) : len(before) + 1] in "([{"
         text = text[: match.start()] + _group_text(before, inner, glued, units, conditions,
                                                    flags) + text[match.end() :]  # fmt: skip
 
