@@ -55,6 +55,12 @@ def test_a_switch_without_coss_still_verifies_and_says_what_is_left_out(catalog)
             n for n in point["not_included"] if n["term"] == "coss"
         ).items()
         assert point["efficiency_is_upper_bound"] is True
+    # ... and warns, naming the option that fills the gap
+    warned = [w for w in document["warnings"] if w["code"] == "loss-not-included"]
+    assert {"term": "coss", "role": "switch", "part": "NTV-QN40-21"}.items() <= next(
+        w["detail"] for w in warned if w["detail"]["term"] == "coss"
+    ).items()
+    assert "--coss" in result.output and "Warnings" in result.output
 
 
 def test_a_fast_diode_without_qrr_still_verifies(catalog):

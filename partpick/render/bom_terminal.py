@@ -284,4 +284,6 @@ def _render_verification(bom: Bom, console: Console, verbose: bool = True) -> No
         console.print(Text(line, style=STYLE_UNVERIFIED))
     render_ratings(result, console)
     for warning in result.warnings:
+        if warning.code == "loss-not-included" and not verbose:
+            continue  # the totals above already list the terms not included
         console.print(Text(f"• {warning_sentence(warning)}", style=STYLE_UNVERIFIED))

@@ -101,8 +101,27 @@ def losses_table(points: tuple[PointResult, ...]) -> Table:
     return table
 
 
+# the verify option that supplies each loss-only figure (verify/stage.py LOSS_PARAMETERS)
+_TERM_OPTIONS = {
+    "switching": "--qgd",
+    "coss": "--coss",
+    "diode_cj": "--cj",
+    "recovery": "--qrr",
+    "gate_drive": "--qg",
+}
+
+
 def warning_sentence(warning: VerifyWarning) -> str:
     """Return the sentence of one warning, naming its operating point."""
+    if warning.code == "loss-not-included" and warning.detail:
+        gap = warning.detail
+        title = LOSS_TITLES.get(gap["term"], gap["term"])
+        option = _TERM_OPTIONS.get(gap["term"])
+        fill = f" (give {option}, or add it to the catalog)" if option else ""
+        return (
+            f"every point: the {title} loss is not included, no {gap['figure']} for "
+            f"{gap['role']} {gap['part']}{fill}; the efficiency is an upper bound"
+        )
     where = f"{format_eng(warning.vin_v, 'V')} in, {format_eng(warning.iout_a, 'A')} out"
     value, limit = warning.value, warning.limit
     if warning.code == "vout-unreachable":
@@ -264,7 +283,8 @@ def render_verify(result: VerifyResult, console: Console) -> None:
         )
     render_ratings(result, console)
     for note in result.stage.notes:
-        console.print(Text(f"note: {note}", style=STYLE_MUTED))
+        if "not included" not in note:  # those are warnings below, with their option
+            console.print(Text(f"note: {note}", style=STYLE_MUTED))
     if result.warnings:
         body = "\n".join(f"• {warning_sentence(w)}" for w in result.warnings)
         console.print(Panel(body, title="Warnings", border_style=STYLE_CAUTION))

@@ -27,6 +27,7 @@ from partpick.verify.ratings import (
 )
 from partpick.verify.stage import Stage, stage_from_parts
 from partpick.verify.steady_state import SteadyState, sample_segment, steady_state
+from partpick.verify.terms import not_included_terms
 
 # A regulated duty above 0.9 is impractical for a boost (issue 3; common practice).
 HIGH_DUTY = 0.9
@@ -42,6 +43,7 @@ WARNING_CODES: tuple[str, ...] = (
     "high-duty",
     "efficiency-below-estimate",
     "diode-reconducts",
+    "loss-not-included",
 )
 
 
@@ -55,14 +57,19 @@ class OperatingPoint:
 
 @dataclass(frozen=True)
 class VerifyWarning:
-    """One warning: its code (of :data:`WARNING_CODES`), where, the figure and its limit."""
+    """One warning: its code (of :data:`WARNING_CODES`), where, the figure and its limit.
+
+    ``vin_v`` and ``iout_a`` are None for a warning about every point (a loss term left out
+    for want of data, named in ``detail`` as term, part and figure).
+    """
 
     code: str
-    vin_v: float
-    iout_a: float
+    vin_v: float | None
+    iout_a: float | None
     value: float
     limit: float | None
     unit: str
+    detail: dict[str, str] | None = None
 
     def to_dict(self) -> dict[str, object]:
         return {
@@ -72,6 +79,7 @@ class VerifyWarning:
             "value": self.value,
             "limit": self.limit,
             "unit": self.unit,
+            "detail": self.detail,
         }
 
 
@@ -225,6 +233,10 @@ def verify_design(
             )  # fmt: skip
     warnings = [
         w for r in results for w in _point_warnings(spec, r, regulated, estimate, ccm_floor)
+    ]
+    warnings += [
+        VerifyWarning("loss-not-included", None, None, 0.0, None, "W", gap.to_dict())
+        for gap in not_included_terms(stage)
     ]
     return VerifyResult(
         spec=spec,
