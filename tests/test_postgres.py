@@ -401,3 +401,30 @@ def test_reading_an_empty_database_says_import_first_and_creates_nothing(pg_serv
     with pg_server.admin_of(db.rsplit("/", 1)[1]) as conn:
         tables = conn.execute("SELECT count(*) FROM pg_tables WHERE schemaname = 'public'")
         assert tables.fetchone() == (0,)
+
+
+def test_an_importer_needs_only_the_grants_the_readme_lists(pg_server):
+    db = pg_server.new_database()
+    import_catalog(db, [CATALOG_DATA / "inductors_small.csv"], "inductor")  # the owner
+    name = db.rsplit("/", 1)[1]
+    with pg_server.admin() as conn:
+        conn.execute("DROP ROLE IF EXISTS pp_engineer")
+        conn.execute("CREATE ROLE pp_engineer LOGIN PASSWORD 'eng-Pw-3'")
+    try:
+        with pg_server.admin_of(name) as owner:  # the README's grants for people who import
+            owner.execute("GRANT SELECT, INSERT, UPDATE ON ALL TABLES IN SCHEMA public "
+                          "TO pp_engineer")  # fmt: skip
+            owner.execute("GRANT USAGE, UPDATE ON ALL SEQUENCES IN SCHEMA public TO pp_engineer")
+        engineer = pg_server.url_of(name, user="pp_engineer", password="eng-Pw-3")
+        (report,) = import_catalog(engineer, [CATALOG_DATA / "capacitors_small.csv"], "capacitor")
+        assert report.added == 4
+        assert list_batches(engineer)[-1].imported_by == "pp_engineer"
+    finally:
+        from partpick.catalog.store import dispose_engines
+
+        dispose_engines()
+        with pg_server.admin_of(name) as owner:
+            owner.execute("REVOKE ALL ON ALL TABLES IN SCHEMA public FROM pp_engineer")
+            owner.execute("REVOKE ALL ON ALL SEQUENCES IN SCHEMA public FROM pp_engineer")
+        with pg_server.admin() as conn:
+            conn.execute("DROP ROLE IF EXISTS pp_engineer")
