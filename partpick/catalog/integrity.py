@@ -75,6 +75,10 @@ def inspect_catalog(url: str, path: Path, *, for_import: bool = False) -> Catalo
     """
     if path.is_dir():
         raise DatabaseError(url, "is a folder, not a catalog file")
+    if path.is_symlink() and not path.exists():
+        raise DatabaseError(url, "is a symlink to nothing (or a loop), not a catalog file")
+    if path.exists() and not path.is_file():
+        raise DatabaseError(url, "is a device or a FIFO, not a catalog file")
     if not path.exists():
         if for_import:
             return None

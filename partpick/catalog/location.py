@@ -21,7 +21,10 @@ def resolve_db_url(db: str | None) -> str:
     value = db or os.environ.get(ENV_DB) or DEFAULT_DB
     if "://" in value:
         return value
-    return "sqlite:///" + str(Path(value).expanduser().resolve())
+    try:
+        return "sqlite:///" + str(Path(value).expanduser().resolve())
+    except (RuntimeError, OSError):  # a symlink loop: the integrity check names the problem
+        return "sqlite:///" + os.path.abspath(os.path.expanduser(value))
 
 
 def sqlite_file(url: str) -> Path | None:

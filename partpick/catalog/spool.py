@@ -32,6 +32,8 @@ def is_stream(path: str | Path) -> bool:
         mode = os.stat(path).st_mode
     except OSError:
         return False  # the reader reports a missing file with its own message
+    if stat.S_ISCHR(mode) or stat.S_ISBLK(mode):
+        raise CatalogFormatError(str(path), "is a device, not a CSV file")
     return not stat.S_ISREG(mode) and not stat.S_ISDIR(mode)
 
 

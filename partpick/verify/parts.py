@@ -134,12 +134,25 @@ def _catalog_row(db: str | None, role: str, mpn: str) -> dict[str, object]:
         return {}
 
 
+MAX_BOM_BYTES = 64 << 20  # a BOM with its verification is a few MB; a device never ends
+
+
+def _bom_bytes(path: str | Path) -> bytes:
+    with open(path, "rb") as handle:
+        data = handle.read(MAX_BOM_BYTES + 1)
+    if len(data) > MAX_BOM_BYTES:
+        raise ParameterError(str(path), "is not a BOM JSON file: it is larger than 64 MiB")
+    return data
+
+
 def _read_bom(path: str | Path) -> dict[str, Any]:
     name = str(path)
     try:
-        document = json.loads(Path(path).read_text(encoding="utf-8"))
+        document = json.loads(_bom_bytes(path).decode("utf-8"))
     except OSError as exc:
         raise NotFoundError("BOM file", name, exc.strerror or "") from None
+    except RecursionError:
+        raise ParameterError(name, "is not a BOM JSON file: it is nested too deeply") from None
     except (json.JSONDecodeError, UnicodeDecodeError) as exc:
         raise ParameterError(name, f"is not a BOM JSON file: {exc}") from None
     if not isinstance(document, dict) or not isinstance(document.get("lines"), list):
