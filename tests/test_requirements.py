@@ -58,7 +58,7 @@ def _requirements(role: str) -> dict[tuple[str, str], float]:
         ("output-cap", "voltage_v", ">=", 24.06 / 0.5),  # 48.1 V, the 50 V ceramic class
         ("output-cap", "ripple_a", ">=", 1.548 / 4),  # four parts share 1.548 A
         # half of 120 mV each: 0.8·0.7875/(400e3·4·0.06) = 6.56 µF; 4·0.06/4.368 = 54.9 mΩ
-        ("output-cap", "capacitance_eff_f", ">=", 0.8 * 0.7875 / (400e3 * 4 * 0.06)),
+        ("output-cap", "c_eff_f", ">=", 0.8 * 0.7875 / (400e3 * 4 * 0.06)),
         ("output-cap", "esr_ohm", "<=", 4 * 0.06 / 4.368),
         ("output-cap", "count", "<=", 4),
         ("input-cap", "voltage_v", ">=", 8.4 / 0.5),  # 16.8 V

@@ -18,7 +18,7 @@ LABELS: dict[str, str] = {
     "isat_a": "Isat",
     "irms_a": "Irms",
     "voltage_v": "V rated",
-    "capacitance_eff_f": "C_eff",
+    "c_eff_f": "C_eff",
     "esr_ohm": "ESR",
     "ripple_a": "ripple",
     "vrrm_v": "VRRM",

@@ -32,8 +32,9 @@ class RuleNeeds:
 class Requirement:
     """A rating a part must have, such as ``isat_a >= 5.4`` (A): data for a search line.
 
-    ``field`` is a catalog field, or a product of two (``vf_theta_ja`` = VF·θJA in V·°C/W,
-    ``rds_on_theta_ja`` = RDS(on)·θJA in Ω·°C/W), or ``count`` (parts in parallel).
+    ``field`` is a catalog field, ``c_eff_f`` (a capacitor's effective capacitance, as pick
+    JSON names it), a product of two (``vf_theta_ja`` = VF·θJA in V·°C/W, ``rds_on_theta_ja``
+    = RDS(on)·θJA in Ω·°C/W), or ``count`` (parts in parallel).
     ``comparison`` is ``">="`` or ``"<="``; ``value`` is SI in the dimension key ``unit``;
     ``rule`` names the screening rule it comes from; ``note`` states an assumption.
     """

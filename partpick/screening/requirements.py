@@ -112,7 +112,7 @@ def _ripple_budget(ripple_v, charge_as, current_a, max_parallel):
     half = ripple_v / 2.0
     note = "per part, half the ripple budget each"
     return [
-        Requirement("capacitance_eff_f", ">=", charge_as / (max_parallel * half), "F",
+        Requirement("c_eff_f", ">=", charge_as / (max_parallel * half), "F",
                     "ripple-voltage", note),
         Requirement("esr_ohm", "<=", max_parallel * half / current_a, "ohm", "ripple-voltage",
                     note),
