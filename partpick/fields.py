@@ -1402,6 +1402,36 @@ _CONDITION_ALTERNATIVES: dict[tuple[str, str], tuple[re.Pattern[str], str]] = {
 }
 
 
+# A condition that says which of two fields an ambiguous header is: an inductor's "Rated
+# Current (ΔT = 40 K)" is the heating current, "Current @ 30 % drop" the saturation current.
+_CONDITION_SETTLES: dict[str, tuple[tuple[frozenset[str], re.Pattern[str], str], ...]] = {
+    "inductor": (
+        (
+            frozenset(_CURRENT_OF_INDUCTOR),
+            re.compile(r"\brise\b|δt|Δt|\bdelta[ -]?t\b|\bdt\b|\bheating\b", re.IGNORECASE),
+            "irms_a",
+        ),
+        (
+            frozenset(_CURRENT_OF_INDUCTOR),
+            re.compile(r"\bdrop\b|roll[- ]?off|δl|Δl|\bdelta[ -]?l\b|\bdecrease\b", re.IGNORECASE),
+            "isat_a",
+        ),
+    ),
+}
+
+
+def settled_by_condition(kind: str, names: frozenset[str], condition: str) -> str | None:
+    """Return the one field of ``names`` that ``condition`` says a header means, if any."""
+    if not condition:
+        return None
+    found = {
+        field_name
+        for candidates, pattern, field_name in _CONDITION_SETTLES.get(kind, ())
+        if names == candidates and pattern.search(condition)
+    }
+    return found.pop() if len(found) == 1 else None
+
+
 def condition_alternative(kind: str, name: str, condition: str) -> str | None:
     """Return the field a header of field ``name`` may mean under ``condition``, if any."""
     entry = _CONDITION_ALTERNATIVES.get((kind, name))

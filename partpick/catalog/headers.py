@@ -43,6 +43,7 @@ from partpick.fields import (
     condition_alternative,
     fields_of,
     fold_text,
+    settled_by_condition,
 )
 from partpick.units import unit_multiplier
 
@@ -190,6 +191,8 @@ def _match_one(header: str, index: WordingIndex) -> tuple[Field, str, tuple, str
     stays unread."""
     wording = parse_wording(header)
     names, how, loose_units = _lookup(wording, index)
+    settled = settled_by_condition(index.kind, names, wording.condition)
+    names = frozenset({settled}) if settled else names
     if len(names) > 1 and OTHER not in names and (wording.units or loose_units):
         # "L (mm)" is a length and "L (µH)" an inductance: the unit tells them apart
         fitting = [n for n in names if _units_fit(index.fields[n], wording.units + loose_units)]
