@@ -16,7 +16,8 @@ user must be allowed to create databases: each round gets a fresh one.
    Cold: the cache folder is emptied first (the first pick after someone imported). Beside
    them, a bare process that only fetches the columns the inductor rules read by binary COPY,
    the alternative to a cached snapshot. Goal: warm PostgreSQL <= 1.5 x SQLite.
-3. **Two importers.** Two processes import N different rows each into one catalog at once.
+3. **Two importers.** Two processes import N different rows each into one new, empty
+   catalog at once (so they also race to create its tables).
    Goal: both succeed and the catalog holds every distinct part of the two files.
 
 Rounds alternate between the contenders and the best of each is compared (least disturbed
@@ -163,7 +164,7 @@ def bench_two_importers(server: Server, first: Path, second: Path) -> None:
     import pandas as pd
 
     db = server.new()
-    run([*PARTPICK, "parts", "--kind", "inductor", "--db", db])  # create the tables first
+    # no tables yet: the two also race to create them (the schema lock makes one wait)
     expected = set()
     for path in (first, second):
         frame = pd.read_csv(path, dtype=str, keep_default_na=False)
