@@ -8,7 +8,8 @@ two parts. Before a chunk's rows are stored:
   removed and inner runs of whitespace made one space.
 * A manufacturer takes the spelling the catalog (or this import) already has for it,
   compared with case folded: "acme" after "Acme" is the same maker, stored as "Acme".
-  (Part numbers keep their case; see DEVELOPERS.md.)
+* A part number keeps its spelling, but a new row whose part number differs from a stored
+  one of the same maker only in letter case is removed and rejected after the load.
 * A cell that reads as mojibake, UTF-8 bytes decoded as Windows-1252 ("MÃ¼ller" for
   "Müller"), is rejected: the file mixes encodings, and storing the cell would make a
   second maker that is the first one garbled.
@@ -157,3 +158,39 @@ def _mojibake_reject(line, header: str, text: str, meant: str) -> Reject:
         "save it in one encoding (UTF-8) and import it again"
     )
     return Reject(int(line), header, text, reason)
+
+
+def remove_case_variants(conn, kind: str, batch_id: int) -> list[tuple[int, str, str]]:
+    """Remove this batch's new rows whose part number differs from another's only in case.
+
+    Returns (line, mpn, reason) of each row removed. The part stored first (lowest id: an
+    earlier import's, or the earlier line of this file) stays. Cheap when no part number of
+    the kind has a lower-case letter, since then no two can differ only in case; else one
+    grouping pass in SQL. SQLite only (``upper`` folds ASCII, as part numbers are).
+    """
+    if conn.dialect.name != "sqlite" or kind not in KINDS:
+        return []
+    table = table_name(kind)
+    mixed = conn.exec_driver_sql(f"SELECT EXISTS (SELECT 1 FROM {table} WHERE mpn <> upper(mpn))")
+    if not mixed.scalar():
+        return []
+    rows = conn.exec_driver_sql(
+        f"SELECT id, batch_id, source_line, manufacturer, mpn FROM {table} "
+        f"WHERE (manufacturer, upper(mpn)) IN (SELECT manufacturer, upper(mpn) FROM {table} "
+        "GROUP BY 1, 2 HAVING count(*) > 1) ORDER BY id"
+    ).all()
+    first: dict[tuple[str, str], tuple] = {}
+    removed = []
+    for row_id, batch, line, maker, mpn in rows:
+        key = (maker, mpn.upper())
+        if key not in first:
+            first[key] = (batch, line, mpn)
+            continue
+        if batch != batch_id:
+            continue  # two earlier parts: not this import's to settle
+        kept_batch, kept_line, kept_mpn = first[key]
+        where = f"line {kept_line}" if kept_batch == batch_id else f"the catalog's {kept_mpn!r}"
+        conn.exec_driver_sql(f"DELETE FROM {table} WHERE id = ?", (row_id,))
+        removed.append((int(line), mpn, f"same manufacturer and part number as {where} "
+                        "(they differ only in letter case)"))  # fmt: skip
+    return removed

@@ -430,6 +430,13 @@ def _write_chunks(
             )
     if bulk:
         _finish_bulk_load(conn, item, batch_id, builder, written)
+    variants = identity.remove_case_variants(conn, item.kind, batch_id)
+    if variants:
+        if builder is not None:
+            builder.invalidate()  # the variants were spilled but are gone from the table
+        written.kept -= len(variants)
+        written.changed -= len(variants)
+        written.rejects += [Reject(line, item.mpn_header, mpn, why) for line, mpn, why in variants]
     return written
 
 
