@@ -936,6 +936,7 @@ KIND_FIELDS: dict[str, tuple[Field, ...]] = {
                 "Max Reverse Voltage",
                 "VRWM",
                 "Working Peak Reverse Voltage",
+                "Working Reverse Voltage",
                 "PIV",
                 "Peak Inverse Voltage",
                 "VRM",
