@@ -14,6 +14,7 @@ import numpy as np
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
+from partpick.catalog import cells as cells_module
 from partpick.catalog import identity
 from partpick.catalog.importer import import_catalog
 
@@ -81,3 +82,24 @@ def test_fast_tidy_check_examples():
     assert not tidy("A\tB") and not tidy("A\nB")
     assert tidy("A\x1fB") and not tidy("A\x1f", "B") and not tidy("A", "\x1fB")  # \s matches
     assert not tidy("Müller") and not tidy("A", None)
+
+
+def _factorize_by_dict(cells: list) -> tuple[list, list]:
+    """The definition: codes by first appearance, as a dict keyed by the cells gives them."""
+    uniques = list(dict.fromkeys(cells))
+    index = {cell: code for code, cell in enumerate(uniques)}
+    return [index[c] for c in cells], uniques
+
+
+@settings(max_examples=300, deadline=None)
+@given(st.lists(st.one_of(st.text(max_size=4), st.none(), st.just(float("nan"))), max_size=12))
+def test_factorize_with_pandas_loaded_agrees_with_the_dict(cells):
+    import pandas  # noqa: F401 - loaded, as a large file's reading loads it
+
+    column = np.empty(len(cells), dtype=object)
+    column[:] = cells
+    codes, uniques = cells_module.factorize(column)
+    expected_codes, expected_uniques = _factorize_by_dict(cells)
+    assert codes.tolist() == expected_codes
+    assert len(uniques) == len(expected_uniques)
+    assert all(a is b or a == b for a, b in zip(uniques, expected_uniques, strict=True))

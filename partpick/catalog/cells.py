@@ -4,7 +4,8 @@ Catalog columns repeat heavily (a thousand parts share a dozen inductance values
 column is factorised, each distinct text is read once by :mod:`partpick.units` or the
 field's aliases, and the results are spread back with an array take. Only the factorising
 touches every cell (one dict lookup each, as fast as pandas' hash table here, measured on
-100,000 inductors). Standard library and numpy only: a small import never loads pandas.
+100,000 inductors). Standard library and numpy only: a small import never loads pandas
+(pandas' factorize is used only where a large file's reading has loaded it already).
 """
 
 from __future__ import annotations
@@ -13,6 +14,7 @@ import itertools
 import json
 import math
 import re
+import sys
 from dataclasses import dataclass
 
 import numpy as np
@@ -59,8 +61,16 @@ def factorize(cells) -> tuple[np.ndarray, list]:
     """Return (code per cell, distinct cells in order of first appearance).
 
     ``cells`` is any sequence of cell texts. Both passes run inside C (``dict.fromkeys`` and
-    a ``map`` of a dict lookup), as fast as pandas' factorize here (measured, 100,000 rows).
+    a ``map`` of a dict lookup). When pandas is loaded anyway (a large file is read with it),
+    its hash table factorises an object array in less than half the time (measured, 50,000
+    inductor rows: 0.031 s against 0.072 s for 18 columns); it codes None and NaN as -1,
+    so a column holding one goes the dict way, which keeps them as values.
     """
+    pandas = sys.modules.get("pandas")
+    if pandas is not None and isinstance(cells, np.ndarray) and cells.dtype == object:
+        codes, distinct = pandas.factorize(cells)
+        if not len(codes) or codes.min() >= 0:
+            return codes.astype(np.intp, copy=False), distinct.tolist()
     uniques = list(dict.fromkeys(cells))
     index = {cell: code for code, cell in enumerate(uniques)}
     codes = np.fromiter(map(index.__getitem__, cells), dtype=np.intp, count=len(cells))

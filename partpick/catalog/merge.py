@@ -223,8 +223,10 @@ def insert_rows(
     count = len(lines)
     names = _bound_columns(kind, values)
     block = np.empty((count, len(names)), dtype=object)
+    flags = {f.name for f in stored_fields(kind) if f.type == "bool"}
     for j, name in enumerate(names):
-        block[:, j] = lines if name == "source_line" else values[name]
+        column = lines if name == "source_line" else values[name]
+        block[:, j] = _as_integers(column) if name in flags else column
     group = ROWS_PER_STATEMENT
     whole = count - count % group
     if whole:
@@ -235,6 +237,18 @@ def insert_rows(
         rest = block[whole:].tolist()
         conn.exec_driver_sql(_insert_head(kind, batch_id, 1, names), _parameter_sets(conn, rest))
     return count
+
+
+def _as_integers(flags: np.ndarray) -> list:
+    """Return yes/no cells as 1 / 0 (None stays None), as SQLite stores them anyway.
+
+    The sqlite3 driver binds an int at once but looks for an adapter for each bool (measured:
+    about 0.02 s per 100,000 rows).
+    """
+    return [_FLAG_INTEGERS.get(v, v) for v in flags.tolist()]
+
+
+_FLAG_INTEGERS = {True: 1, False: 0}
 
 
 def _bound_columns(kind: str, values: dict[str, np.ndarray]) -> tuple[str, ...]:
