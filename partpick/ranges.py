@@ -68,7 +68,10 @@ SPEC_RANGES: dict[str, tuple[float, float, str]] = {
     "fsw": (1e3, 1e8, "Hz"),
     "vout_ripple": (1e-6, 100.0, "V"),
     "vin_ripple": (1e-6, 100.0, "V"),
-    "iout_min": (0.0, 1000.0, "A"),
+    "iout_min": (1e-9, 1000.0, "A"),
+    "efficiency": (0.1, 1.0, "fraction"),
+    "ripple_ratio_lo": (0.01, 1.99, "fraction"),
+    "ripple_ratio_hi": (0.01, 1.99, "fraction"),
     "gate_drive_a": (1e-3, 100.0, "A"),
 }
 

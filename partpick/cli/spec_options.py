@@ -134,12 +134,14 @@ def checked_spec(
 
 
 def spec_values(spec: Spec) -> dict[str, float | None]:
-    """Return the spec's numbers by spec key (the pair ``ripple_ratio`` left out)."""
-    return {
+    """Return the spec's numbers by spec key; the pair ``ripple_ratio`` as ``_lo``/``_hi``."""
+    values = {
         key: getattr(spec, entry.attribute)
         for key, entry in SPEC_KEYS.items()
         if entry.unit is not None and isinstance(entry.attribute, str)
     }
+    values.update(ripple_ratio_lo=spec.ripple_ratio_lo, ripple_ratio_hi=spec.ripple_ratio_hi)
+    return values
 
 
 def with_spec_options(command: F) -> F:

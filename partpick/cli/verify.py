@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import math
 from enum import StrEnum
 from pathlib import Path
 from typing import Annotated
@@ -57,9 +58,26 @@ _OVERRIDE_FIELDS = {p.option: (p.field, p.unit) for p in PARAMETERS + LOSS_PARAM
 def _quantity(text: str, unit: str, option: str) -> float:
     """Return ``text`` parsed in ``unit``; a bad value is an error naming ``option``."""
     try:
-        return parse_quantity(text, unit)
+        value = parse_quantity(text, unit)
     except UnitError as exc:
         raise ParameterError(option, f"cannot be read: {exc}") from None
+    if not math.isfinite(value):
+        raise ParameterError(option, "must be a finite number", value=text)
+    return value
+
+
+def _override_value(flag: str, text: str) -> float:
+    """Return an override in SI, refused outside its field's plausibility range."""
+    import numpy as np
+
+    from partpick.ranges import outside_field_range, unusual_field_value
+
+    field, unit = _OVERRIDE_FIELDS[flag]
+    value = _quantity(text, unit, flag)
+    if outside_field_range(field, np.array([value]))[0]:
+        sentence = unusual_field_value(field, value, unit).sentence()
+        raise ParameterError(flag, f"is implausible: {sentence}", value=text)
+    return value
 
 
 def register(app: typer.Typer) -> None:
@@ -182,7 +200,7 @@ def verify_command(
         "--cj": cj,
     }
     overrides = {
-        _OVERRIDE_FIELDS[flag][0]: _quantity(text, _OVERRIDE_FIELDS[flag][1], flag)
+        _OVERRIDE_FIELDS[flag][0]: _override_value(flag, text)
         for flag, text in given.items()
         if text is not None
     }
