@@ -262,7 +262,7 @@ def test_render_shows_each_point_and_every_warning_as_a_sentence():
     render_verify(result, Console(file=buffer, width=100, color_system=None))
     text = buffer.getvalue()
     assert "6 V" in text and "2 V" in text
-    assert "Losses per element" in text
+    assert "Losses per term in mW" in text
     for warning in result.warnings:
         sentence = warning_sentence(warning)
         assert sentence.split(":")[0] in text

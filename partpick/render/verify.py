@@ -20,7 +20,7 @@ from partpick.render.safe_text import Table
 from partpick.units import format_eng
 from partpick.verify.stage import Stage
 from partpick.verify.sweep import PointResult, VerifyResult, VerifyWarning
-from partpick.verify.terms import LOSS_KEYS, LOSS_TERMS
+from partpick.verify.terms import LOSS_TERMS
 
 LOSS_TITLES = {t.key: t.title for t in LOSS_TERMS}
 
@@ -73,32 +73,49 @@ def _milliwatts(value_w: float) -> str:
     return f"{milliwatts:.0f}" if abs(milliwatts) >= 999.5 else f"{milliwatts:.3g}"
 
 
-def losses_table(points: tuple[PointResult, ...]) -> Table:
-    """Return the loss of each term at each operating point, in mW (plain numbers).
+_LOSS_LABEL_WIDTH = 14  # "D leak (diode)" and the like
+_LOSS_POINT_WIDTH = 9  # "≥ 1030" or "800 mA", with the padding between columns
 
-    A term left out for want of data shows "—", never a zero that reads as measured.
+
+def losses_tables(points: tuple[PointResult, ...], width: int) -> list[Table]:
+    """Return the loss of each term (rows) at each operating point (columns), in mW.
+
+    The terms run down the page, so a table of a dozen terms fits an 80-column terminal; the
+    points are split over as many tables as the width needs. A term left out for want of data
+    shows "—", never a zero that reads as measured.
     """
+    per_table = max(1, (width - _LOSS_LABEL_WIDTH) // _LOSS_POINT_WIDTH)
+    return [
+        _losses_table(points[start : start + per_table])
+        for start in range(0, len(points), per_table)
+    ]
+
+
+def _losses_table(points: tuple[PointResult, ...]) -> Table:
     table = Table(
         box=box.SIMPLE_HEAD, header_style=STYLE_HEADING, pad_edge=False, collapse_padding=True
     )
-    table.add_column("Vin", justify="right", no_wrap=True)
-    table.add_column("Iout", justify="right", no_wrap=True)
-    for key in LOSS_KEYS:
-        table.add_column(LOSS_TITLES[key], justify="right", no_wrap=True)
-    table.add_column("Total", justify="right", no_wrap=True)
+    table.add_column("term (heats)", no_wrap=True)
     for item in points:
-        missing = {gap.term for gap in item.state.not_included}
+        header = f"{format_eng(item.point.vin_v, 'V')}\n{format_eng(item.point.iout_a, 'A')}"
+        table.add_column(header, justify="right", no_wrap=True)
+    missing = [{gap.term for gap in item.state.not_included} for item in points]
+    for term in LOSS_TERMS:
         cells = [
-            "—" if key in missing else _milliwatts(item.state.losses_w[key]) for key in LOSS_KEYS
+            "—" if term.key in gaps else _milliwatts(item.state.losses_w[term.key])
+            for item, gaps in zip(points, missing, strict=True)
         ]
-        total = _milliwatts(item.state.total_loss_w)
-        table.add_row(
-            format_eng(item.point.vin_v, "V"),
-            format_eng(item.point.iout_a, "A"),
-            *cells,
-            f"≥ {total}" if missing else total,
-        )
+        table.add_row(f"{term.title} ({_HEATS_SHORT.get(term.heats, term.heats)})", *cells)
+    totals = [_milliwatts(item.state.total_loss_w) for item in points]
+    table.add_row(
+        "total",
+        *(f"≥ {t}" if gaps else t for t, gaps in zip(totals, missing, strict=True)),
+        style=STYLE_HEADING,
+    )
     return table
+
+
+_HEATS_SHORT = {"inductor": "L", "switch": "Q", "diode": "D", "output-cap": "Cout"}
 
 
 # the verify option that supplies each loss-only figure (verify/stage.py LOSS_PARAMETERS)
@@ -269,8 +286,9 @@ def render_verify(result: VerifyResult, console: Console) -> None:
         )
     )
     console.print(points_table(result))
-    console.print(Text("Losses per element (mW)", style=STYLE_HEADING))
-    console.print(losses_table(result.points))
+    console.print(Text("Losses per term in mW, and the part each heats", style=STYLE_HEADING))
+    for table in losses_tables(result.points, console.width):
+        console.print(table)
     gaps = not_included_lines(result.points)
     for line in gaps:
         console.print(Text(line, style=STYLE_UNVERIFIED))
