@@ -53,6 +53,33 @@ def test_a_capacitor_file_without_esr_costs_both_capacitor_roles(db_file, write_
     )
 
 
+MOSFETS_NO_CHANNEL = (
+    "MPN,Description,VDS,ID,Rds(on),Qgd,Tj max,Theta JA,Lifecycle\n"
+    "TQ-1,N-channel 30 V trench switch,30 V,10 A,9 mOhm,3 nC,150,60,active\n"
+    "TQ-2,30 V switch P-CH,30 V,10 A,9 mOhm,3 nC,150,60,active\n"
+    "TQ-3,30 V trench switch,30 V,10 A,9 mOhm,3 nC,150,60,active\n"
+)
+
+
+def test_a_channel_the_descriptions_state_is_no_gap_for_those_parts(db_file, write_csv):
+    (report,) = import_catalog(db_file, [write_csv(MOSFETS_NO_CHANNEL)], "mosfet")
+    assert dict(report.inferred) == {"channel": 2}  # TQ-1 and TQ-2 say it; TQ-3 does not
+    gaps = coverage_gaps("mosfet", report.fields_present, report.inferred)
+    assert coverage_sentences(gaps, 3) == [
+        "no column for channel: read from the description for 2 of 3 parts; the other part "
+        "will be unverified for the switch role (channel check)"
+    ]
+
+
+def test_a_channel_every_description_states_costs_nothing(db_file, write_csv):
+    text = MOSFETS_NO_CHANNEL.replace("30 V trench switch,30 V", "NMOS 30 V,30 V")
+    (report,) = import_catalog(db_file, [write_csv(text)], "mosfet")
+    gaps = coverage_gaps("mosfet", report.fields_present, report.inferred)
+    assert coverage_sentences(gaps, 3) == [
+        "no column for channel: read from the description for every part"
+    ]
+
+
 def test_map_file_constants_count_as_columns(db_file, write_csv, tmp_path):
     map_path = tmp_path / "m.toml"
     map_path.write_text('[constants]\nlifecycle = "active"\n', encoding="utf-8")

@@ -30,6 +30,8 @@ from dataclasses import dataclass, field
 from pathlib import Path
 from typing import TYPE_CHECKING
 
+import numpy as np
+
 from partpick.catalog import (
     columns,
     identity,
@@ -41,6 +43,7 @@ from partpick.catalog import (
     sqlite_light,
 )
 from partpick.catalog.headers import ColumnMatch, MapFile, Unread, check_map_for_kind, load_map
+from partpick.catalog.inference import inferable_fields
 from partpick.catalog.location import generation_key, resolve_db_url, snapshot_file, sqlite_file
 from partpick.catalog.mapfile import map_for_kind
 from partpick.catalog.reading import (
@@ -103,6 +106,7 @@ class ImportReport:
     constants: tuple[str, ...]
     unread: tuple[Unread, ...] = ()  # the unrecognised headers, with what might settle them
     unusual: tuple[Reject, ...] = ()  # implausible values accepted with --allow-unusual
+    inferred: tuple[tuple[str, int], ...] = ()  # (field, parts) filled from the description
 
     @property
     def fields_present(self) -> tuple[str, ...]:
@@ -380,7 +384,7 @@ def _import_one(
         rejected=rejected, rejects=tuple(rejects), columns=item.plan.matches,
         unrecognised=item.plan.unrecognised, ignored=item.plan.ignored,
         constants=tuple(item.constants), unread=item.plan.unread,
-        unusual=tuple(written.unusual),
+        unusual=tuple(written.unusual), inferred=tuple(written.inferred.items()),
     )  # fmt: skip
 
 
@@ -393,6 +397,7 @@ class _Written:
     changed: int = 0  # rows SQLite inserted or changed
     rejects: list[Reject] = field(default_factory=list)
     unusual: list[Reject] = field(default_factory=list)  # accepted with allow_unusual
+    inferred: dict[str, int] = field(default_factory=dict)  # field -> rows the description filled
 
 
 def _write_chunks(
@@ -455,7 +460,19 @@ def _checked_chunks(
         chunk, notes = plausible.screen_chunk(chunk, item.kind, headers, item.allow_unusual)
         if item.allow_unusual:
             written.unusual += notes
+        _count_inferred(chunk, item, headers, written)
         yield chunk
+
+
+def _count_inferred(chunk: Chunk, item: PreparedFile, headers: dict, written: _Written) -> None:
+    """Add the kept rows whose field the file has no column for, yet the description filled."""
+    for name in inferable_fields(item.kind):
+        column = chunk.values.get(name)
+        if name in headers or name in item.constants or column is None:
+            continue
+        filled = int(np.count_nonzero(~np.equal(column, None)))
+        if filled:
+            written.inferred[name] = written.inferred.get(name, 0) + filled
 
 
 def _copy_chunks(

@@ -96,7 +96,7 @@ def import_command(
             typer.echo(f"wrote {rejects}", err=True)
         raise
     try:
-        gaps = [coverage_gaps(r.kind, r.fields_present) for r in reports]
+        gaps = [coverage_gaps(r.kind, r.fields_present, r.inferred) for r in reports]
         if output is ImportFormat.json:
             typer.echo(import_json(reports, gaps))
         else:

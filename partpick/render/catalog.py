@@ -120,23 +120,44 @@ def parts_of(report: ImportReport) -> int:
 
 
 def coverage_sentences(gaps: Sequence[FieldGap], parts: int) -> list[str]:
-    """Return one sentence per missing field: which checks it costs the file's parts."""
+    """Return one sentence per missing field: which checks it costs the file's parts.
+
+    Parts whose description stated the value (``FieldGap.inferred``) lose nothing; the
+    sentence says so and counts only the rest.
+    """
     if parts == 0:
         return []
-    these = "this part" if parts == 1 else f"these {parts} parts"
-    every = "the one part" if parts == 1 else f"all {parts} parts"
     out = []
     for gap in gaps:
-        if gap.unverified_roles:
-            roles = " and ".join(gap.unverified_roles)
-            rules = ", ".join(dict.fromkeys(g.rule for g in gap.rules if not g.optional))
-            noun = "role" if len(gap.unverified_roles) == 1 else "roles"
-            text = f"{every} will be unverified for the {roles} {noun} ({rules} check)"
-        else:
-            rules = " and ".join(dict.fromkeys(g.rule for g in gap.skipped))
-            text = f"the {rules} check is skipped for {these}"
-        out.append(f"no column for {gap.field}: {text}")
+        rest = max(parts - gap.inferred, 0)
+        stated = ""
+        if gap.inferred:
+            some = "every part" if rest == 0 else f"{gap.inferred} of {parts} parts"
+            stated = f"read from the description for {some}"
+        if rest == 0:
+            out.append(f"no column for {gap.field}: {stated}")
+            continue
+        out.append(f"no column for {gap.field}: " + "; ".join(
+            filter(None, (stated, _lost_checks(gap, rest, others=bool(gap.inferred))))
+        ))  # fmt: skip
     return out
+
+
+def _lost_checks(gap: FieldGap, count: int, others: bool) -> str:
+    """Return what ``count`` parts without the field lose: a role left unverified, or checks."""
+    if others:
+        these = "the other part" if count == 1 else f"the other {count} parts"
+        every = these
+    else:
+        these = "this part" if count == 1 else f"these {count} parts"
+        every = "the one part" if count == 1 else f"all {count} parts"
+    if gap.unverified_roles:
+        roles = " and ".join(gap.unverified_roles)
+        rules = ", ".join(dict.fromkeys(g.rule for g in gap.rules if not g.optional))
+        noun = "role" if len(gap.unverified_roles) == 1 else "roles"
+        return f"{every} will be unverified for the {roles} {noun} ({rules} check)"
+    rules = " and ".join(dict.fromkeys(g.rule for g in gap.skipped))
+    return f"the {rules} check is skipped for {these}"
 
 
 def import_json(reports: Sequence[ImportReport], gaps: Sequence[Sequence[FieldGap]]) -> str:
@@ -172,6 +193,7 @@ def _import_document(report: ImportReport, gaps: Sequence[FieldGap]) -> dict[str
         "constants": list(report.constants),
         "missing": [
             {"field": g.field, "unverified_roles": list(g.unverified_roles),
+             "inferred_parts": g.inferred,
              "rules": [{"role": r.role, "rule": r.rule, "optional": r.optional}
                        for r in g.rules],
              "consequence": sentence}

@@ -31,6 +31,7 @@ class FieldGap:
 
     field: str
     rules: tuple[RuleGap, ...]
+    inferred: int = 0  # parts whose description stated the value the file has no column for
 
     @property
     def unverified_roles(self) -> tuple[str, ...]:
@@ -56,15 +57,20 @@ def rule_fields(kind: str) -> dict[str, tuple[RuleGap, ...]]:
     return {name: tuple(gaps) for name, gaps in found.items()}
 
 
-def coverage_gaps(kind: str, present: Iterable[str]) -> tuple[FieldGap, ...]:
+def coverage_gaps(
+    kind: str, present: Iterable[str], inferred: Iterable[tuple[str, int]] = ()
+) -> tuple[FieldGap, ...]:
     """Return a FieldGap for each field of ``kind`` some rule reads that is not ``present``.
 
+    ``inferred`` gives, per field, how many parts had the value filled from their
+    description (see :mod:`partpick.catalog.inference`); the gap then costs only the rest.
     Fields come in data-dictionary order; those whose absence leaves parts unverified first.
     """
     have = set(present)
+    filled = dict(inferred)
     by_field = rule_fields(kind)
     gaps = [
-        FieldGap(f.name, by_field[f.name])
+        FieldGap(f.name, by_field[f.name], filled.get(f.name, 0))
         for f in fields_of(kind)
         if f.name in by_field and f.name not in have
     ]
