@@ -158,3 +158,22 @@ def test_the_escapers_leave_nothing_live(text):
     assert "<" not in md and "\n" not in md
     assert not md.startswith("#")
     assert "|" not in md.replace("\\|", "")
+
+
+class _Terminal(io.StringIO):
+    def isatty(self) -> bool:
+        return True
+
+
+def test_machine_output_is_inert_on_a_terminal_and_exact_in_a_pipe(monkeypatch):
+    from partpick.cli.common import echo_data
+
+    data = 'mpn,manufacturer\nX-1,"\x1b[2Jclear"\n'
+    terminal = _Terminal()
+    monkeypatch.setattr("sys.stdout", terminal)
+    echo_data(data, nl=False)
+    assert "\x1b" not in terminal.getvalue() and "␛[2J" in terminal.getvalue()
+    pipe = io.StringIO()
+    monkeypatch.setattr("sys.stdout", pipe)
+    echo_data(data, nl=False)
+    assert pipe.getvalue() == data  # a pipe or file gets the data byte for byte

@@ -19,6 +19,7 @@ from partpick.cli.common import (
     RankOption,
     VerboseOption,
     detail_level,
+    echo_data,
     friendly_errors,
 )
 from partpick.cli.spec_options import with_spec_options
@@ -123,7 +124,7 @@ def bom_command(
 
             render_bom_table(bom, make_console(), detail)
         else:
-            typer.echo(_rendered(bom, output_format, plot_name, bom_report, detail), nl=False)
+            echo_data(_rendered(bom, output_format, plot_name, bom_report, detail), nl=False)
     else:
         write_atomically(output, _rendered(bom, output_format, plot_name, bom_report, detail))
         written.insert(0, output)

@@ -12,7 +12,7 @@ from typing import Annotated
 
 import typer
 
-from partpick.cli.common import AllowUnusualOption, DbOption, friendly_errors
+from partpick.cli.common import AllowUnusualOption, DbOption, echo_data, friendly_errors
 from partpick.errors import ImportInterrupted, StrictImportError
 from partpick.outputs import resolve_output
 from partpick.render.catalog import (
@@ -98,7 +98,7 @@ def import_command(
     try:
         gaps = [coverage_gaps(r.kind, r.fields_present, r.inferred) for r in reports]
         if output is ImportFormat.json:
-            typer.echo(import_json(reports, gaps))
+            echo_data(import_json(reports, gaps))
         else:
             render_import_reports(console, reports, gaps=gaps)
         if rejects is not None:
@@ -133,9 +133,9 @@ def parts_command(
     json_out = output is PartsFormat.json
     parts = list_parts(db, kind, where or (), provenance=json_out)
     if json_out:
-        typer.echo(parts_json(parts))
+        echo_data(parts_json(parts))
     elif output is PartsFormat.csv:
-        typer.echo(parts_csv(kind, parts), nl=False)
+        echo_data(parts_csv(kind, parts), nl=False)
     else:
         render_parts_table(make_console(), kind, parts)
 

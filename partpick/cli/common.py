@@ -31,6 +31,19 @@ DbOption = Annotated[
 ]
 
 
+def echo_data(text: str, nl: bool = True) -> None:
+    """Print machine-readable output (CSV, JSON, Markdown): exactly as it is into a pipe or
+    file (``typer.echo`` would strip escape sequences there, changing the data), with control
+    characters made visible on a terminal, where they would act as commands."""
+    import sys
+
+    if sys.stdout.isatty():
+        typer.echo(plain_text(text), nl=nl)
+        return
+    sys.stdout.write(text + ("\n" if nl else ""))
+    sys.stdout.flush()
+
+
 def friendly_errors(command: F) -> F:
     """Wrap a command so a PartpickError prints one line on stderr and exits with its code."""
 

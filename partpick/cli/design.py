@@ -7,7 +7,7 @@ from typing import Annotated
 
 import typer
 
-from partpick.cli.common import friendly_errors
+from partpick.cli.common import echo_data, friendly_errors
 from partpick.cli.spec_options import with_spec_options
 from partpick.design.spec import Spec
 from partpick.design.topologies import analyse
@@ -43,6 +43,6 @@ def stress_command(spec: Spec, output_format: FormatOption = StressFormat.table)
     """
     envelope = analyse(spec)
     if output_format is StressFormat.json:
-        typer.echo(json_text(envelope.to_dict()), nl=False)
+        echo_data(json_text(envelope.to_dict()), nl=False)
         return
     render_stress(envelope, make_console())

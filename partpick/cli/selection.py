@@ -22,6 +22,7 @@ from partpick.cli.common import (
     RankOption,
     VerboseOption,
     detail_level,
+    echo_data,
     friendly_errors,
 )
 from partpick.cli.spec_options import with_spec_options
@@ -147,6 +148,6 @@ def _show_explanation(found, output_format: PickFormat, make_console) -> None:
     from partpick.render.exports import json_text
 
     if output_format is not PickFormat.table:
-        typer.echo(json_text(explanations_json(found)), nl=False)
+        echo_data(json_text(explanations_json(found)), nl=False)
     else:
         render_explanations(found, make_console())

@@ -9,7 +9,7 @@ from typing import Annotated
 
 import typer
 
-from partpick.cli.common import EXIT_STRICT_REJECTS, DbOption, friendly_errors
+from partpick.cli.common import EXIT_STRICT_REJECTS, DbOption, echo_data, friendly_errors
 from partpick.cli.spec_options import with_spec_options
 from partpick.design.spec import Spec
 from partpick.errors import ParameterError, UnitError
@@ -225,7 +225,7 @@ def verify_command(
         save_plot(plot, result)
         typer.echo(f"wrote {plot}", err=True)
     if output_format is VerifyFormat.json:
-        typer.echo(json_text(result.to_dict()), nl=False)
+        echo_data(json_text(result.to_dict()), nl=False)
     else:
         render_verify(result, make_console())
     if strict and result.violations:
