@@ -7,6 +7,7 @@ the fuzz can name lies in its own temporary folder (or is /dev/null, which must 
 
 from __future__ import annotations
 
+import os
 import tempfile
 from pathlib import Path
 
@@ -22,6 +23,8 @@ DATA = Path(__file__).parent / "data"
 BOM_KINDS = (("inductor", "inductors"), ("capacitor", "capacitors"), ("diode", "diodes"),
              ("mosfet", "mosfets"))  # fmt: skip
 ALLOWED_EXITS = {0, 1, 2, 3}
+# CI gives the fuzz about a minute (eight times the examples); a developer's run stays short.
+SCALE = 8 if os.environ.get("CI") else 1
 
 NASTY = st.sampled_from(
     ["", " ", "-", "--", "nan", "inf", "-inf", "1e308", "-1e308", "0", "-0", "1e-320",
@@ -106,7 +109,7 @@ def _csv_rows():
     return st.lists(st.lists(cell, min_size=1, max_size=5), max_size=6)
 
 
-@settings(max_examples=200, deadline=None, derandomize=True,
+@settings(max_examples=200 * SCALE, deadline=None, derandomize=True,
           suppress_health_check=[HealthCheck.function_scoped_fixture, HealthCheck.too_slow,
                                  HealthCheck.data_too_large])  # fmt: skip
 @given(data=st.data())
@@ -116,7 +119,7 @@ def test_no_command_crashes(world, data):
     _assert_clean(args, result)
 
 
-@settings(max_examples=80, deadline=None, derandomize=True,
+@settings(max_examples=80 * SCALE, deadline=None, derandomize=True,
           suppress_health_check=[HealthCheck.function_scoped_fixture, HealthCheck.too_slow])
 @given(rows=_csv_rows(), kind=st.sampled_from(["inductor", "capacitor", "diode", "mosfet"]))
 def test_no_catalog_file_crashes_the_import(world, rows, kind):
