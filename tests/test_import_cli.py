@@ -199,3 +199,30 @@ def test_repeated_header_names_are_both_kept(db_file, write_csv):
     assert report.unrecognised == ("Bin", "Bin (2)")
     (extra,) = sqlite3.connect(db_file).execute("SELECT extra FROM parts_inductor").fetchone()
     assert json.loads(extra) == {"Bin": "A1", "Bin (2)": "B2"}
+
+
+def test_the_console_script_keeps_exit_codes_output_and_a_whole_catalog(tmp_path):
+    """main() ends the process without interpreter teardown; nothing may be lost by that."""
+    import sqlite3
+    import subprocess
+    import sys
+
+    db = tmp_path / "c.db"
+
+    def run(*args: str) -> subprocess.CompletedProcess:
+        code = "import sys; from partpick.cli import main; sys.argv[0] = 'partpick'; main()"
+        return subprocess.run(
+            [sys.executable, "-c", code, *args], capture_output=True, text=True, check=False
+        )
+
+    imported = run("import", str(SMALL), "--kind", "inductor", "--db", str(db))
+    assert imported.returncode == 0, imported.stderr
+    assert "inductors_small.csv" in imported.stdout
+    listed = run("parts", "--kind", "inductor", "--format", "csv", "--db", str(db))
+    assert listed.returncode == 0, listed.stderr
+    with sqlite3.connect(db) as conn:
+        stored = conn.execute("SELECT count(*) FROM parts_inductor").fetchone()[0]
+    assert stored > 0
+    assert len(listed.stdout.strip().splitlines()) == stored + 1  # every part, and the header
+    missing = run("parts", "--kind", "inductor", "--db", str(tmp_path / "none.db"))
+    assert missing.returncode == 2 and "import first" in missing.stderr  # pinned exit codes
