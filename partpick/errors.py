@@ -136,7 +136,9 @@ class NotFoundError(PartpickError, LookupError):
         return f"no {self.what} {self.name!r}.{hint}"
 
 
-_URL_PASSWORD_RE = re.compile(r"^(?P<head>[A-Za-z][\w+.-]*://[^:@/?#]*):(?P<password>.*)@(?=[^@]*$)")
+_URL_PASSWORD_RE = re.compile(
+    r"^(?P<head>[A-Za-z][\w+.-]*://[^:@/?#]*):(?P<password>.*)@(?=[^@]*$)"
+)
 _QUERY_PASSWORD_RE = re.compile(r"(?P<head>[?&]password=)(?P<password>[^&#]*)")
 
 

@@ -152,23 +152,42 @@ def atomic_file(target: Path, *, mode: int | None = None):
 
     The permission bits are ``mode`` if given, else the existing file's, else the umask's.
     """
-    keep = _existing(target)
-    bits = mode if mode is not None else (stat.S_IMODE(keep.st_mode) if keep else new_file_mode())
-    fd, temp = tempfile.mkstemp(prefix=f".{target.name}.", suffix=".tmp", dir=target.parent)
+    fd, temp = temporary_beside(target)
     try:
         with os.fdopen(fd, "wb") as handle:
             yield handle
             handle.flush()
             os.fsync(handle.fileno())
-        os.chmod(temp, bits)
-        if keep is not None:
-            with contextlib.suppress(OSError):  # only root may give a file to someone else
-                os.chown(temp, keep.st_uid, keep.st_gid)
-        os.replace(temp, target)
+        replace_with(temp, target, mode=mode)
     except BaseException:
         with contextlib.suppress(OSError):
             os.unlink(temp)
         raise
+
+
+def temporary_beside(target: Path) -> tuple[int, Path]:
+    """Return (descriptor, path) of a new temporary file for ``target``, in its folder.
+
+    Named ``.<name>.<random>.tmp``, which :func:`partpick.catalog.snapshot.sweep_leftovers`
+    knows as a half-written file.
+    """
+    fd, temp = tempfile.mkstemp(prefix=f".{target.name}.", suffix=".tmp", dir=target.parent)
+    return fd, Path(temp)
+
+
+def replace_with(temp: Path, target: Path, *, mode: int | None = None) -> None:
+    """Rename the finished (flushed and synced) file ``temp`` over ``target``.
+
+    ``temp`` takes ``mode``, else the permission bits (and where allowed the owner) of the
+    file it replaces, else the umask's.
+    """
+    keep = _existing(target)
+    bits = mode if mode is not None else (stat.S_IMODE(keep.st_mode) if keep else new_file_mode())
+    os.chmod(temp, bits)
+    if keep is not None:
+        with contextlib.suppress(OSError):  # only root may give a file to someone else
+            os.chown(temp, keep.st_uid, keep.st_gid)
+    os.replace(temp, target)
 
 
 def _existing(target: Path) -> os.stat_result | None:

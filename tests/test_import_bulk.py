@@ -3,20 +3,27 @@
 * Only the columns a file has are bound (a field it lacks is left to the column's NULL).
 * Identity columns are checked for cleaning with substring scans instead of one regular
   expression; both must give the same answer on any text.
+* The snapshot is written from the import's own columns (partly from spill files, while
+  the import commits), not read back: it must equal the one rebuilt from the table.
+* A new catalog file is loaded in rollback-journal mode, and must end in WAL mode.
 """
 
 from __future__ import annotations
 
+import contextlib
 import sqlite3
 from pathlib import Path
 
 import numpy as np
+import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
 from partpick.catalog import cells as cells_module
-from partpick.catalog import identity
+from partpick.catalog import columns, identity, sqlite_light
 from partpick.catalog.importer import import_catalog
+from partpick.catalog.location import snapshot_file
+from partpick.errors import StrictImportError
 
 DATA = Path(__file__).parent / "data" / "catalog"
 SMALL = DATA / "inductors_small.csv"
@@ -103,3 +110,55 @@ def test_factorize_with_pandas_loaded_agrees_with_the_dict(cells):
     assert codes.tolist() == expected_codes
     assert len(uniques) == len(expected_uniques)
     assert all(a is b or a == b for a, b in zip(uniques, expected_uniques, strict=True))
+
+
+def _snapshot_arrays(db: Path) -> dict[str, np.ndarray]:
+    with np.load(snapshot_file(db, "inductor")) as archive:
+        return {name: archive[name] for name in archive.files}
+
+
+@pytest.mark.parametrize("chunk_rows", [50_000, 2])  # one chunk held; three, two of them spilled
+def test_the_builders_snapshot_is_the_one_rebuilt_from_the_table(tmp_path, chunk_rows):
+    db = tmp_path / "c.db"
+    import_catalog(str(db), [SMALL], "inductor", chunk_rows=chunk_rows)
+    built = _snapshot_arrays(db)
+    columns.write_snapshot(f"sqlite:///{db}", "inductor")
+    rebuilt = _snapshot_arrays(db)
+    assert built.keys() == rebuilt.keys()
+    for name, array in built.items():
+        assert array.dtype == rebuilt[name].dtype, name
+        assert np.array_equal(array, rebuilt[name], equal_nan=array.dtype.kind == "f"), name
+    assert [p.name for p in snapshot_file(db, "inductor").parent.iterdir()] == ["inductor.npz"]
+
+
+def _mode_during_load(db: Path, **options) -> str:
+    """Return the journal mode a second connection sees while the import is uncommitted."""
+    seen = []
+
+    def look(_reports):
+        with contextlib.closing(sqlite3.connect(db)) as other:
+            seen.append(other.execute("PRAGMA journal_mode").fetchone()[0])
+
+    import_catalog(str(db), [SMALL], "inductor", before_commit=look, **options)
+    return seen[0]
+
+
+def test_a_new_file_is_loaded_in_rollback_mode_and_left_in_wal_mode(tmp_path, monkeypatch):
+    db = tmp_path / "new.db"
+    assert _mode_during_load(db) == "delete"  # a new file: each page is written once
+    assert sqlite3.connect(db).execute("PRAGMA journal_mode").fetchone()[0] == "wal"
+    assert not Path(f"{db}-journal").exists()
+    assert _mode_during_load(db, strict=False) == "wal"  # an existing catalog keeps WAL
+    large = tmp_path / "large.db"
+    monkeypatch.setattr(sqlite_light, "ROLLBACK_LOAD_MAX_BYTES", 10)
+    assert _mode_during_load(large) == "wal"  # too large to load inside the page cache
+
+
+def test_a_failed_bulk_import_leaves_no_snapshot_files(tmp_path):
+    db = tmp_path / "c.db"
+    bad = tmp_path / "bad.csv"
+    bad.write_text(SMALL.read_text() + "QM-BAD-1,Quillmark Magnetics,x,lots,,,,,,,,,,,,,\n")
+    with pytest.raises(StrictImportError):
+        import_catalog(str(db), [bad], "inductor", chunk_rows=2, strict=True)
+    folder = snapshot_file(db, "inductor").parent
+    assert not folder.exists() or list(folder.iterdir()) == []

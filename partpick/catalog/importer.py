@@ -54,7 +54,8 @@ from partpick.catalog.reading import (
     prepare_file,
     read_chunks,
 )
-from partpick.catalog.snapshot import SnapshotBuilder, sweep_leftovers
+from partpick.catalog.snapshot import sweep_leftovers
+from partpick.catalog.snapshot_build import SnapshotBuilder
 from partpick.catalog.spool import STDIN_NAME, spooled_inputs
 from partpick.catalog.tables import table_name
 from partpick.errors import (
@@ -157,13 +158,16 @@ def _import_prepared(db, kind, prepared, strict, progress, chunk_rows, before_co
     builder = None
     before = _generation(db, kind)
     try:
-        with _cycle_collector_paused(), _transaction(db) as conn:
+        load_bytes = sum(item.format.size_bytes for item in prepared)
+        with _cycle_collector_paused(), _transaction(db, load_bytes) as conn:
             if conn.dialect.name == "postgresql":
                 postgres.lock_kind_for_import(conn, kind)  # a second importer waits here
             builder = _snapshot_builder(db, kind, len(prepared))  # once the catalog is open
             reports = [_import_one(conn, item, strict, progress, chunk_rows, builder)
                        for item in prepared]  # fmt: skip
             stamp = _stamp_after_bump(conn, kind)
+            if builder is not None:
+                builder.seal(stamp)
             if before_commit is not None:
                 before_commit(reports)
         _refresh_snapshot(db, kind, builder, stamp, [r.batch_id for r in reports])
@@ -210,10 +214,11 @@ def _named_as_given(item: PreparedFile, given: str | Path) -> PreparedFile:
 
 
 @contextlib.contextmanager
-def _transaction(db: str | None) -> Iterator:
-    """Yield the one connection and transaction of an import.
+def _transaction(db: str | None, load_bytes: int) -> Iterator:
+    """Yield the one connection and transaction of an import of ``load_bytes`` of CSV.
 
-    An SQLite file: a bare sqlite3 connection (no SQLAlchemy import), closed at the end.
+    An SQLite file: a bare sqlite3 connection (no SQLAlchemy import), closed at the end;
+    a new file is created in the journal mode :func:`sqlite_light.connect` picks for it.
     Anything else (an in-memory catalog, a server): an SQLAlchemy connection from the
     catalog's shared engine.
     """
@@ -225,15 +230,11 @@ def _transaction(db: str | None) -> Iterator:
         with open_engine(db).begin() as conn:
             yield conn
         return
-    light = sqlite_light.connect(url, path)
+    light = sqlite_light.connect(url, path, first_load_bytes=load_bytes)
     try:
         with light.begin():
             yield light
-        # Copy the WAL into the file, so the file alone holds the catalog: a teammate
-        # reading from a folder they cannot write opens it as immutable, which would not
-        # see parts still in the WAL. A busy reader only makes it a partial checkpoint.
-        with contextlib.suppress(sqlite3.Error):
-            light.raw.execute("PRAGMA wal_checkpoint(TRUNCATE)")
+        light.settle()
     finally:
         light.close()
 
@@ -434,6 +435,8 @@ def _write_chunks(
                 ImportProgress(item.name, chunk.bytes_done, item.format.size_bytes, written.rows)
             )
     if bulk:
+        if builder is not None:
+            builder.start()  # written while the index is built and the import commits
         _finish_bulk_load(conn, item, batch_id, builder, written)
     variants = identity.remove_case_variants(conn, item.kind, batch_id)
     if variants:
@@ -551,19 +554,19 @@ def _refresh_snapshot(
 ) -> None:
     """Write the columnar snapshot of ``kind`` after the commit.
 
-    From the spilled columns when the import filled an empty table; else the previous
-    snapshot patched with the rows this import wrote; else (no usable previous snapshot)
-    from the whole table. On a write failure the snapshot is left stale; read_columns
-    notices and rebuilds it.
+    From the import's own columns when it filled an empty table (the builder wrote them
+    during the commit); else the previous snapshot patched with the rows this import
+    wrote; else (no usable previous snapshot) from the whole table. On a write failure the
+    snapshot is left stale; read_columns notices and rebuilds it.
     """
     url = resolve_db_url(db)
     path = sqlite_file(url)
     if path is None:
         return  # in-memory and server catalogs are read through SQL
     with contextlib.suppress(OSError):
-        if builder is not None and builder.valid:
-            builder.finish(stamp)
-        elif not _patched(path, kind, batch_ids):
+        if builder is not None and builder.finish():
+            return
+        if not _patched(path, kind, batch_ids):
             columns.write_snapshot(url, kind)
 
 

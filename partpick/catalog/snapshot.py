@@ -11,9 +11,8 @@ Each field is stored by its type:
 
 ``__meta__`` holds (db_uuid, generation, format version, then the parts table's columns) of
 the catalog it was made from; a snapshot differing in any of them is stale and rebuilt.
-:class:`SnapshotBuilder` spills a bulk import's columns to files chunk by chunk, so the
-snapshot of a freshly loaded kind is written without reading the rows back and without
-holding them in memory. Standard library and numpy only (no pandas).
+:mod:`partpick.catalog.snapshot_build` writes the snapshot of a freshly loaded kind from
+the import's own columns. Standard library and numpy only (no pandas).
 """
 
 from __future__ import annotations
@@ -23,15 +22,14 @@ import fcntl
 import os
 import shutil
 import stat
-import tempfile
 import time
 import zipfile
-from collections.abc import Iterable, Iterator, Sequence
+from collections.abc import Iterable, Sequence
 from pathlib import Path
 
 import numpy as np
 
-from partpick.fields import Field, fields_of
+from partpick.fields import Field
 from partpick.outputs import atomic_file
 
 SNAPSHOT_VERSION = "3"
@@ -130,7 +128,7 @@ def make_snapshot_folder(folder: Path, mode: int | None) -> None:
 
 
 BUILD_PREFIX = "-build-"
-_LOCK_NAME = ".lock"
+LOCK_NAME = ".lock"
 _STALE_SECONDS = 60.0
 
 
@@ -157,7 +155,7 @@ def sweep_leftovers(folder: Path) -> list[Path]:
 
 
 def _spill_is_abandoned(spill: Path) -> bool:
-    lock = spill / _LOCK_NAME
+    lock = spill / LOCK_NAME
     if not lock.exists():
         return _is_old(spill)
     try:
@@ -173,61 +171,3 @@ def _is_old(path: Path) -> bool:
         return time.time() - path.stat().st_mtime > _STALE_SECONDS
     except OSError:
         return False
-
-
-class SnapshotBuilder:
-    """Collect the rows of a bulk import chunk by chunk in spill files beside the snapshot.
-
-    Call :meth:`add` with each chunk's columns in insert order, :meth:`invalidate` if the
-    stored table will not equal what was added, and after the commit :meth:`finish` with the
-    committed stamp. :meth:`discard` removes the spill files in every case.
-    """
-
-    def __init__(self, file: Path, kind: str) -> None:
-        self.file = file
-        self.fields = fields_of(kind)
-        make_snapshot_folder(file.parent, catalog_mode(file))
-        self._spill = Path(tempfile.mkdtemp(dir=file.parent, prefix=f".{kind}{BUILD_PREFIX}"))
-        # held for the builder's life, so a later import can tell this spill from a dead one
-        self._lock = open(self._spill / _LOCK_NAME, "wb")  # noqa: SIM115
-        fcntl.flock(self._lock.fileno(), fcntl.LOCK_EX)
-        self.valid = True
-
-    def add(self, values: dict[str, np.ndarray], count: int) -> None:
-        """Append one chunk (field name -> array over its rows; absent fields are missing)."""
-        if not self.valid:
-            return
-        for f in self.fields:
-            for key, array in encode_field(f, values.get(f.name), count).items():
-                with open(self._spill / key, "ab") as out:
-                    out.write(np.ascontiguousarray(array).tobytes())
-
-    def invalidate(self) -> None:
-        """Mark the spilled rows as not the table's contents (the snapshot is then rebuilt)."""
-        self.valid = False
-
-    def finish(self, stamp: tuple[str, ...]) -> None:
-        """Write the snapshot stamped (db_uuid, generation, columns...) from the spills."""
-        save_members(self.file, self._members(stamp))
-
-    def _members(self, stamp: tuple[str, ...]) -> Iterator[tuple[str, np.ndarray]]:
-        yield META, np.array([stamp[0], stamp[1], SNAPSHOT_VERSION, *stamp[2:]])
-        for f in self.fields:
-            keys = [f.name] if f.type != "text" else [f.name, MISSING + f.name]
-            for key in keys:
-                path = self._spill / key
-                dtype = _spill_dtype(f, key)
-                yield key, np.fromfile(path, dtype=dtype) if path.exists() else np.empty(0, dtype)
-
-    def discard(self) -> None:
-        """Remove the spill files."""
-        shutil.rmtree(self._spill, ignore_errors=True)
-        self._lock.close()
-
-
-def _spill_dtype(f: Field, key: str) -> type:
-    if key.startswith(MISSING):
-        return np.bool_
-    return {"float": np.float64, "int": np.float64, "bool": np.int8, "enum": np.int8}.get(
-        f.type, np.uint8
-    )

@@ -36,10 +36,15 @@ from partpick.fields import KINDS, Field
 _SQL_TYPES = {"float": "FLOAT", "int": "INTEGER", "bool": "BOOLEAN"}  # else TEXT
 
 
-def apply_pragmas(connection: sqlite3.Connection) -> None:
-    """Set WAL mode and the pragmas every partpick connection to an SQLite catalog uses."""
+def apply_pragmas(connection: sqlite3.Connection, *, wal: bool = True) -> None:
+    """Set WAL mode and the pragmas every partpick connection to an SQLite catalog uses.
+
+    ``wal=False`` leaves a new file in SQLite's rollback-journal mode, for the first load
+    of a new catalog (see :func:`connect`).
+    """
     cursor = connection.cursor()
-    cursor.execute("PRAGMA journal_mode=WAL")
+    if wal:
+        cursor.execute("PRAGMA journal_mode=WAL")
     # NORMAL in WAL mode: a commit does not wait for fsync, the checkpoint does (WAL, then
     # the database file). The catalog cannot be corrupted, and an application crash loses
     # nothing; only a power cut or OS crash before the next checkpoint can undo the last
@@ -83,8 +88,9 @@ class LightConnection:
     dialect = _Dialect("sqlite")
     binds_lists = True  # executemany takes each parameter set as a list (no tuple copy)
 
-    def __init__(self, connection: sqlite3.Connection) -> None:
+    def __init__(self, connection: sqlite3.Connection, *, in_wal: bool = True) -> None:
         self.raw = connection
+        self.in_wal = in_wal  # False: a new file loaded in rollback-journal mode
 
     def exec_driver_sql(self, sql: str, parameters=None) -> LightResult:
         """Run ``sql`` (qmark or named parameters); a list of parameter sets runs it per set."""
@@ -115,23 +121,55 @@ class LightConnection:
             raise
         self.raw.execute("RELEASE nested")
 
+    def settle(self) -> None:
+        """After the commit: leave the file alone holding the catalog, in WAL mode.
+
+        WAL mode: copy the WAL into the file, so that a teammate reading from a folder
+        they cannot write, who opens it as immutable, sees every part. A new file loaded in
+        rollback mode is switched to WAL, as every other connection would. A busy reader
+        only makes the checkpoint partial or leaves the switch to the next connection.
+        """
+        statement = "PRAGMA wal_checkpoint(TRUNCATE)" if self.in_wal else "PRAGMA journal_mode=WAL"
+        with contextlib.suppress(sqlite3.Error):
+            self.raw.execute(statement)
+
     def close(self) -> None:
         self.raw.close()
 
 
-def connect(url: str, path: Path) -> LightConnection:
+# A new catalog file whose first load is at most this many bytes of CSV is loaded in
+# rollback-journal mode (``connect(..., first_load_bytes=...)``). In WAL mode every page is
+# written twice, to the WAL at the commit and again into the file at the checkpoint; in
+# rollback mode a page of a new file is written once, as there is nothing old to keep. That
+# saved 0.05 s of a 1.1 s import of 100,000 inductors (15 MiB, measured, whole process).
+# The bound keeps the load inside the 64 MiB page cache (a catalog file takes about twice
+# its CSV's size): rollback mode must lock readers out while it spills pages to the file,
+# so a larger load keeps WAL, where readers are never locked out.
+ROLLBACK_LOAD_MAX_BYTES = 24 * 2**20
+
+
+def connect(url: str, path: Path, *, first_load_bytes: int | None = None) -> LightConnection:
     """Return a connection to the catalog file ``path``, its tables created if it has none.
+
+    ``first_load_bytes``: the size of what is about to be loaded. When ``path`` does not
+    exist yet and that is at most :data:`ROLLBACK_LOAD_MAX_BYTES`, the file stays in
+    rollback-journal mode until :meth:`LightConnection.use_wal` (after the commit).
 
     Raises DatabaseError when the file is not a catalog partpick can write.
     """
     if not path.parent.is_dir():
         raise DatabaseError(url, f"the folder {path.parent} does not exist")
+    rollback = (
+        first_load_bytes is not None
+        and first_load_bytes <= ROLLBACK_LOAD_MAX_BYTES
+        and not path.exists()
+    )
     try:
         raw = sqlite3.connect(path, isolation_level=None)
     except sqlite3.Error as exc:
         raise DatabaseError(url, f"cannot be opened ({exc})") from None
     try:
-        apply_pragmas(raw)
+        apply_pragmas(raw, wal=not rollback)
         if not _is_current(raw):
             _prepare(url, raw)
     except sqlite3.DatabaseError as exc:
@@ -140,7 +178,7 @@ def connect(url: str, path: Path) -> LightConnection:
     except BaseException:
         raw.close()
         raise
-    return LightConnection(raw)
+    return LightConnection(raw, in_wal=not rollback)
 
 
 def _is_current(raw: sqlite3.Connection) -> bool:

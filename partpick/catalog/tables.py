@@ -35,6 +35,7 @@ def version_refusal(version: str) -> str | None:
         )
     return None
 
+
 IDENTITY_COLUMNS: tuple[str, ...] = ("kind", "manufacturer", "mpn")
 # The unique index holds (mpn, manufacturer): each table holds one kind, so this is the
 # identity (kind, manufacturer, mpn); leaving the constant kind out makes the index smaller

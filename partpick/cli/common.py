@@ -98,9 +98,7 @@ MaxParallelOption = Annotated[
 ]
 BriefOption = Annotated[
     bool,
-    typer.Option(
-        "--brief", help="Shortest view: no operating point, policy or alternates."
-    ),
+    typer.Option("--brief", help="Shortest view: no operating point, policy or alternates."),
 ]
 VerboseOption = Annotated[
     bool,
