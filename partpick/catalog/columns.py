@@ -27,9 +27,9 @@ from partpick.catalog.postgres import is_postgres
 from partpick.catalog.snapshot import (
     META,
     MISSING,
-    SNAPSHOT_VERSION,
     decode_field,
     encode_rows,
+    meta_array,
     save_members,
     sweep_leftovers,
 )
@@ -113,7 +113,7 @@ def _load_snapshot(file: Path, stamp: tuple[str, ...], wanted: list[Field]) -> d
             meta = archive[META].tolist() if META in archive.files else []
         except (OSError, ValueError, zipfile.BadZipFile):
             return None
-        if meta != [stamp[0], stamp[1], SNAPSHOT_VERSION, *stamp[2:]]:
+        if meta != meta_array(stamp).tolist():
             return None
         keys = [f.name for f in wanted] + [MISSING + f.name for f in wanted]
         if any(f.name not in archive.files for f in wanted):
@@ -137,7 +137,7 @@ def write_snapshot(url: str, kind: str) -> dict[str, np.ndarray]:
         raise DatabaseError(url, f"cannot be read ({exc})") from None
     arrays = _encoded(url, fields, rows)
     generation = meta.get(generation_key(kind), "0")
-    arrays[META] = np.array([meta["db_uuid"], generation, SNAPSHOT_VERSION, *present])
+    arrays[META] = meta_array((meta["db_uuid"], generation, *present))
     with contextlib.suppress(OSError):  # a reader without write access reads from SQL each time
         save_members(snapshot_file(path, kind), arrays.items())
     return arrays

@@ -26,7 +26,7 @@ import numpy as np
 
 from partpick.catalog import postgres
 from partpick.catalog.location import generation_key
-from partpick.catalog.snapshot import META, SNAPSHOT_VERSION, encode_rows, save_members
+from partpick.catalog.snapshot import META, encode_rows, meta_array, save_members
 from partpick.errors import DatabaseError, NoCatalogError, mask_url
 from partpick.fields import Field, fields_of
 
@@ -125,8 +125,7 @@ def _rebuild(conn, kind: str, file: Path) -> dict[str, np.ndarray]:
         cursor = conn.cursor(binary=True)
         rows = cursor.execute(f"SELECT {names} FROM parts_{kind} ORDER BY id").fetchall()
     arrays = encode_rows(fields, rows)
-    arrays[META] = np.array([meta["db_uuid"], meta.get(generation_key(kind), "0"),
-                             SNAPSHOT_VERSION])  # fmt: skip
+    arrays[META] = meta_array((meta["db_uuid"], meta.get(generation_key(kind), "0")))
     try:
         file.parent.mkdir(mode=0o700, parents=True, exist_ok=True)
         save_members(file, arrays.items())

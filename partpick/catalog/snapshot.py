@@ -65,6 +65,11 @@ def encode_field(
     return {f.name: blob, MISSING + f.name: missing}
 
 
+def meta_array(stamp: Sequence[str]) -> np.ndarray:
+    """Return the ``__meta__`` array of a snapshot stamped (db_uuid, generation, columns...)."""
+    return np.array([stamp[0], stamp[1], SNAPSHOT_VERSION, *stamp[2:]])
+
+
 def decode_field(arrays: dict[str, np.ndarray], f: Field) -> np.ndarray:
     """Return field ``f`` as read_columns gives it: float64 with NaN, or object with None."""
     raw = arrays[f.name]

@@ -34,10 +34,10 @@ from partpick.catalog.snapshot import (
     LOCK_NAME,
     META,
     MISSING,
-    SNAPSHOT_VERSION,
     catalog_mode,
     encode_field,
     make_snapshot_folder,
+    meta_array,
 )
 from partpick.fields import Field, fields_of
 from partpick.outputs import replace_with, temporary_beside
@@ -152,10 +152,10 @@ class SnapshotBuilder:
                     self._sealed.wait()
                     if self._stamp is None:
                         return  # discarded before the commit
-                    meta = np.array([self._stamp[0], self._stamp[1], SNAPSHOT_VERSION,
-                                     *self._stamp[2:]])  # fmt: skip
                     with archive.open(META + ".npy", "w", force_zip64=True) as member:
-                        np.lib.format.write_array(member, meta, allow_pickle=False)
+                        np.lib.format.write_array(
+                            member, meta_array(self._stamp), allow_pickle=False
+                        )
                 out.flush()
                 os.fsync(out.fileno())
         except Exception:  # noqa: BLE001 - any failure only means no snapshot from here

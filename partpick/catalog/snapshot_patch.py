@@ -24,10 +24,10 @@ from partpick.catalog.location import generation_key, snapshot_file
 from partpick.catalog.snapshot import (
     META,
     MISSING,
-    SNAPSHOT_VERSION,
     decode_field,
     encode_field,
     encode_rows,
+    meta_array,
     save_members,
 )
 from partpick.fields import Field, fields_of
@@ -87,7 +87,7 @@ def read_table_state(
             tuple(batch_ids),
         ).fetchall()
         conn.execute("COMMIT")
-    stamp = [meta["db_uuid"], meta.get(generation_key(kind), "0"), SNAPSHOT_VERSION, *present]
+    stamp = meta_array((meta["db_uuid"], meta.get(generation_key(kind), "0"), *present)).tolist()
     return stamp, ids, changed
 
 

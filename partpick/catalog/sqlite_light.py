@@ -153,7 +153,7 @@ def connect(url: str, path: Path, *, first_load_bytes: int | None = None) -> Lig
 
     ``first_load_bytes``: the size of what is about to be loaded. When ``path`` does not
     exist yet and that is at most :data:`ROLLBACK_LOAD_MAX_BYTES`, the file stays in
-    rollback-journal mode until :meth:`LightConnection.use_wal` (after the commit).
+    rollback-journal mode until :meth:`LightConnection.settle` (after the commit).
 
     Raises DatabaseError when the file is not a catalog partpick can write.
     """
